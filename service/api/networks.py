@@ -1,0 +1,25 @@
+"""Exact analysis of a user's own sections."""
+
+from typing import Annotated
+
+from fastapi import APIRouter, Body
+
+from service import designer
+from service.api.documented import error_responses
+from service.examples import request_examples
+from service.schemas.networks import AnalyzeRequest
+from service.schemas.results import AnalysisResult
+from service.settings import Settings
+
+
+def build_router(settings: Settings) -> APIRouter:
+    """The /v1/networks routes."""
+    router = APIRouter(prefix="/v1/networks", tags=["networks"], responses=error_responses())
+    examples = request_examples(settings.examples_dir, "networks/analyze")
+
+    @router.post("/analyze", response_model=AnalysisResult, summary="Check your own sections")
+    def analyze(request: Annotated[AnalyzeRequest, Body(openapi_examples=examples)]) -> AnalysisResult:
+        """Verify a list of sections (e.g. a design rounded to buildable impedances) by the exact cascade."""
+        return designer.analyze(request)
+
+    return router

@@ -1,0 +1,44 @@
+"""Stepped-transformer synthesis endpoints: thin wrappers around the designer."""
+
+from typing import Annotated
+
+from fastapi import APIRouter, Body
+
+from service import designer
+from service.api.documented import error_responses
+from service.examples import request_examples
+from service.schemas.results import TransformerDesign
+from service.schemas.transformers import QuarterWaveRequest, TransformerRequest
+from service.settings import Settings
+
+
+def build_router(settings: Settings) -> APIRouter:
+    """The /v1/transformers routes, with their request examples."""
+    router = APIRouter(prefix="/v1/transformers", tags=["transformers"], responses=error_responses())
+
+    quarter_wave_examples = request_examples(settings.examples_dir, "transformers/quarter-wave")
+    binomial_examples = request_examples(settings.examples_dir, "transformers/binomial")
+    chebyshev_examples = request_examples(settings.examples_dir, "transformers/chebyshev")
+
+    @router.post("/quarter-wave", response_model=TransformerDesign, summary="Quarter-wave transformer")
+    def quarter_wave(
+        request: Annotated[QuarterWaveRequest, Body(openapi_examples=quarter_wave_examples)],
+    ) -> TransformerDesign:
+        """One section of impedance sqrt(Z0 RL), a quarter wave long at the band centre."""
+        return designer.quarter_wave(request)
+
+    @router.post("/binomial", response_model=TransformerDesign, summary="Binomial (maximally flat)")
+    def binomial(
+        request: Annotated[TransformerRequest, Body(openapi_examples=binomial_examples)],
+    ) -> TransformerDesign:
+        """Maximally flat multi-section transformer; N given, or the smallest N meeting the spec."""
+        return designer.binomial(request)
+
+    @router.post("/chebyshev", response_model=TransformerDesign, summary="Chebyshev (equal ripple)")
+    def chebyshev(
+        request: Annotated[TransformerRequest, Body(openapi_examples=chebyshev_examples)],
+    ) -> TransformerDesign:
+        """Equal-ripple multi-section transformer; N, ripple, both, or neither (spec 0.1)."""
+        return designer.chebyshev(request)
+
+    return router

@@ -1,0 +1,38 @@
+"""The ASGI application: routers, middleware and error handling."""
+
+from __future__ import annotations
+
+from fastapi import FastAPI
+from fastapi.middleware.cors import CORSMiddleware
+
+from service import __version__
+from service.api import health, networks, transformers
+from service.errors import install_error_handlers
+from service.settings import Settings
+
+DESCRIPTION = (
+    "Synthesizes quarter-wave, binomial and Chebyshev impedance-matching transformers and "
+    "verifies every design by an exact ABCD cascade. SI units throughout; sections are listed "
+    "from the source side to the load side."
+)
+
+
+def create_app(settings: Settings | None = None) -> FastAPI:
+    """Build the app from settings (from the environment when none are given)."""
+    settings = settings or Settings.from_env()
+    app = FastAPI(title="Stepline", version=__version__, description=DESCRIPTION)
+    install_error_handlers(app)
+    if settings.cors_allow_origins:
+        app.add_middleware(
+            CORSMiddleware,
+            allow_origins=settings.cors_allow_origins,
+            allow_methods=["GET", "POST"],
+            allow_headers=["Content-Type", "Authorization"],
+        )
+    app.include_router(health.router)
+    app.include_router(transformers.build_router(settings))
+    app.include_router(networks.build_router(settings))
+    return app
+
+
+app = create_app()

@@ -1,0 +1,170 @@
+"""Quarter-wave, binomial and Chebyshev transformers from small-reflection theory.
+
+The theory treats the total reflection as the sum of the junction reflections, each delayed
+by its round trip: Gamma(theta) = sum_n Gamma_n exp(-2 j n theta). The binomial (maximally flat)
+and Chebyshev (equal ripple) designs choose the Gamma_n so that this sum has the wanted shape.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+from numpy.polynomial import chebyshev as cheb
+from scipy.special import comb
+
+from service.design.stepped import (
+    SteppedDesign,
+    fraction_from_edge_angle,
+    impedances_from_weights,
+    load_reflection,
+)
+
+MAX_SECTIONS = 32
+FULL_BAND_FRACTION = 2.0  # the whole period 0 .. 2 f0 of a commensurate line
+
+
+class InfeasibleDesignError(ValueError):
+    """The requested specification cannot be met within the allowed number of sections."""
+
+
+def quarter_wave(
+    source_ohm: float, load_ohm: float, edge_angle_rad: float, spec_reflection: float
+) -> SteppedDesign:
+    """Single quarter-wave section Z1 = sqrt(Z0 ZL); its response formula is exact for one section."""
+    impedance = math.sqrt(source_ohm * load_ohm)
+    mismatch = abs(load_ohm - source_ohm)
+    edge_sec_sq = 1.0 / math.cos(edge_angle_rad) ** 2
+    predicted = mismatch / math.sqrt(mismatch**2 + 4.0 * source_ohm * load_ohm * edge_sec_sq)
+    if spec_reflection >= abs(load_reflection(source_ohm, load_ohm)):
+        fraction = FULL_BAND_FRACTION
+    else:
+        cos_edge = (
+            2.0
+            * spec_reflection
+            * math.sqrt(source_ohm * load_ohm)
+            / (math.sqrt(1.0 - spec_reflection**2) * mismatch)
+        )
+        fraction = fraction_from_edge_angle(math.acos(cos_edge))
+    return SteppedDesign(np.array([impedance]), predicted, fraction)
+
+
+def binomial_weights(sections: int) -> np.ndarray:
+    """Junction weights C(N, n), n = 0..N, of the maximally flat response."""
+    return comb(sections, np.arange(sections + 1))
+
+
+def binomial(
+    source_ohm: float,
+    load_ohm: float,
+    sections: int,
+    edge_angle_rad: float,
+    spec_reflection: float,
+) -> SteppedDesign:
+    """Binomial design: |Gamma| = |rho| |cos theta|^N, with bandwidth quoted at the spec reflection."""
+    rho = abs(load_reflection(source_ohm, load_ohm))
+    impedances = impedances_from_weights(source_ohm, load_ohm, binomial_weights(sections))
+    predicted = rho * abs(math.cos(edge_angle_rad)) ** sections
+    if spec_reflection >= rho:
+        fraction = FULL_BAND_FRACTION
+    else:
+        fraction = fraction_from_edge_angle(math.acos((spec_reflection / rho) ** (1.0 / sections)))
+    return SteppedDesign(impedances, predicted, fraction)
+
+
+def binomial_sections_for(
+    source_ohm: float, load_ohm: float, edge_angle_rad: float, max_reflection: float
+) -> int:
+    """Smallest N whose binomial response stays within max_reflection over the band."""
+    rho = abs(load_reflection(source_ohm, load_ohm))
+    if rho <= max_reflection:
+        return 1
+    log_cos = math.log(math.cos(edge_angle_rad))
+    if log_cos == 0.0:
+        raise InfeasibleDesignError("the band reaches down to DC, where no stepped line can match")
+    return _at_least_one(math.log(max_reflection / rho) / log_cos, "binomial")
+
+
+def chebyshev_weights(sections: int, scale: float) -> np.ndarray:
+    """Junction weights of A T_N(scale cos theta), n = 0..N, from its cos((N-2n) theta) terms.
+
+    T_N(scale x) is expanded into powers of x and re-expressed as a Chebyshev series in x,
+    because cos(m theta) = T_m(cos theta). The coefficient b_m of cos(m theta) belongs half to
+    junction n and half to junction N-n (m = N - 2n), except the middle one for even N.
+    """
+    unit = np.zeros(sections + 1)
+    unit[-1] = 1.0
+    power = cheb.cheb2poly(unit) * scale ** np.arange(sections + 1)
+    series = cheb.poly2cheb(power)
+    orders = np.abs(sections - 2 * np.arange(sections + 1))
+    weights = series[orders] / 2.0
+    if sections % 2 == 0:
+        weights[sections // 2] *= 2.0
+    return weights
+
+
+def chebyshev_peak(sections: int, argument: float) -> float:
+    """max |T_N(y)| over |y| <= argument, argument >= 0."""
+    if argument >= 1.0:
+        return float(np.cosh(sections * np.arccosh(argument)))
+    extrema = np.cos(np.arange(sections + 1) * math.pi / sections)
+    if np.any(np.abs(extrema) <= argument):
+        return 1.0
+    return abs(math.cos(sections * math.acos(argument)))
+
+
+def chebyshev(
+    source_ohm: float,
+    load_ohm: float,
+    sections: int,
+    edge_angle_rad: float,
+    ripple: float | None = None,
+) -> SteppedDesign:
+    """Chebyshev (equal ripple) design.
+
+    With no ripple the equal-ripple edges are put on the band limits, the lowest ripple N
+    sections can give over the band. With a ripple the edges follow from it. The predicted
+    bandwidth is the equal-ripple band.
+    """
+    rho = abs(load_reflection(source_ohm, load_ohm))
+    notes: tuple[str, ...] = ()
+    if ripple is None:
+        scale = 1.0 / math.cos(edge_angle_rad)
+    elif ripple < rho:
+        scale = math.cosh(math.acosh(rho / ripple) / sections)
+    else:
+        scale = 1.0
+        notes = (
+            f"The bare load reflects only {rho:.4g}, within the requested ripple {ripple:.4g}: "
+            "the equal-ripple design degenerates to |Gamma| = |rho cos(N theta)|, which never "
+            "exceeds the load's own reflection.",
+        )
+    design_ripple = rho / chebyshev_peak(sections, scale)
+    impedances = impedances_from_weights(source_ohm, load_ohm, chebyshev_weights(sections, scale))
+    predicted = design_ripple * chebyshev_peak(sections, scale * math.cos(edge_angle_rad))
+    fraction = fraction_from_edge_angle(math.acos(1.0 / scale))
+    return SteppedDesign(impedances, predicted, fraction, notes)
+
+
+def chebyshev_sections_for(
+    source_ohm: float, load_ohm: float, edge_angle_rad: float, max_reflection: float
+) -> int:
+    """Smallest N whose equal-ripple response over the band stays within max_reflection."""
+    rho = abs(load_reflection(source_ohm, load_ohm))
+    if rho <= max_reflection:
+        return 1
+    spread = math.acosh(1.0 / math.cos(edge_angle_rad))
+    if spread == 0.0:
+        raise InfeasibleDesignError("the band reaches down to DC, where no stepped line can match")
+    return _at_least_one(math.acosh(rho / max_reflection) / spread, "Chebyshev")
+
+
+def _at_least_one(required: float, method: str) -> int:
+    """Round a required section count up (with a little slack for rounding) and check the limit."""
+    sections = max(1, math.ceil(required - 1e-9))
+    if sections > MAX_SECTIONS:
+        raise InfeasibleDesignError(
+            f"a {method} transformer would need {sections} sections to meet the spec over this "
+            f"band; at most {MAX_SECTIONS} are allowed"
+        )
+    return sections

@@ -1,0 +1,92 @@
+"""Turn every failure into the API's one error shape (see schemas/errors.py)."""
+
+from __future__ import annotations
+
+import logging
+from collections.abc import Sequence
+from typing import Any
+
+from fastapi import FastAPI, Request
+from fastapi.exceptions import RequestValidationError
+from fastapi.responses import JSONResponse
+from starlette.exceptions import HTTPException
+
+from service.schemas.errors import ErrorBody, Problem
+
+logger = logging.getLogger("stepline")
+
+
+class UnmeetableRequestError(Exception):
+    """A request that is well formed but asks for something that cannot be given."""
+
+    def __init__(self, field: str, message: str) -> None:
+        super().__init__(f"{field}: {message}")
+        self.field = field
+        self.message = message
+
+
+def field_path(location: Sequence[Any]) -> str:
+    """('body', 'sections', 2, 'impedance_ohm') -> 'sections[2].impedance_ohm'."""
+    parts = list(location)
+    if parts and parts[0] == "body":
+        parts = parts[1:]
+    path = ""
+    for part in parts:
+        if isinstance(part, int):
+            path += f"[{part}]"
+        else:
+            path += f".{part}" if path else str(part)
+    return path or "body"
+
+
+def plain_message(error: dict[str, Any]) -> str:
+    """Pydantic's message for one error, reworded where it is not plain enough."""
+    kind = error.get("type", "")
+    if kind == "json_invalid":
+        reason = error.get("ctx", {}).get("error", "cannot be parsed")
+        return f"the body is not valid JSON: {reason}"
+    if kind == "missing" and list(error.get("loc", ())) == ["body"]:
+        return "a JSON request body is required"
+    message = str(error.get("msg", "is invalid"))
+    return message.removeprefix("Value error, ")
+
+
+def error_response(status: int, title: str, problems: list[Problem]) -> JSONResponse:
+    """A JSONResponse in the API's error shape."""
+    body = ErrorBody(status=status, title=title, problems=problems)
+    return JSONResponse(status_code=status, content=body.model_dump())
+
+
+def validation_problems(errors: Sequence[dict[str, Any]]) -> list[Problem]:
+    """Pydantic/FastAPI validation errors as Problems, one per error."""
+    return [
+        Problem(
+            field="body" if error.get("type") == "json_invalid" else field_path(error.get("loc", ())),
+            message=plain_message(error),
+        )
+        for error in errors
+    ]
+
+
+def install_error_handlers(app: FastAPI) -> None:
+    """Register the handlers that give every error the same shape."""
+
+    @app.exception_handler(RequestValidationError)
+    async def _invalid(_: Request, exc: RequestValidationError) -> JSONResponse:
+        return error_response(422, "invalid request", validation_problems(exc.errors()))
+
+    @app.exception_handler(UnmeetableRequestError)
+    async def _unmeetable(_: Request, exc: UnmeetableRequestError) -> JSONResponse:
+        problem = Problem(field=exc.field, message=exc.message)
+        return error_response(422, "request cannot be met", [problem])
+
+    @app.exception_handler(HTTPException)
+    async def _http(_: Request, exc: HTTPException) -> JSONResponse:
+        problem = Problem(field="request", message=str(exc.detail))
+        return error_response(exc.status_code, str(exc.detail).lower(), [problem])
+
+    @app.exception_handler(Exception)
+    async def _unexpected(_: Request, exc: Exception) -> JSONResponse:
+        logger.exception("unexpected error", exc_info=exc)
+        problem = Problem(field="request", message="an unexpected error occurred")
+        return error_response(500, "internal error", [problem])

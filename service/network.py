@@ -1,0 +1,85 @@
+"""Exact analysis of cascaded transmission-line sections by ABCD matrices.
+
+Independent of the synthesis code on purpose: it is the check of every design. All functions
+are vectorized over frequency (and over any leading batch axes) by NumPy broadcasting.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+SPEED_OF_LIGHT_M_PER_S = 299_792_458.0
+
+
+@dataclass(frozen=True)
+class Abcd:
+    """The four ABCD entries of a two-port, each an array over frequency (and batch axes)."""
+
+    a: np.ndarray
+    b: np.ndarray
+    c: np.ndarray
+    d: np.ndarray
+
+
+def electrical_length_rad(
+    length_m: np.ndarray, frequency_hz: np.ndarray, velocity_factor: float
+) -> np.ndarray:
+    """beta * l of each section at each frequency: shape (..., frequencies, sections)."""
+    wavenumber = (
+        2.0 * np.pi * np.asarray(frequency_hz)[..., None] / (velocity_factor * SPEED_OF_LIGHT_M_PER_S)
+    )
+    return wavenumber * np.asarray(length_m)[..., None, :]
+
+
+def cascade(impedances_ohm: np.ndarray, electrical_lengths_rad: np.ndarray) -> Abcd:
+    """Product of lossless line ABCD matrices, source side first.
+
+    impedances_ohm has shape (..., sections); electrical_lengths_rad (..., frequencies, sections).
+    """
+    impedances = np.asarray(impedances_ohm, dtype=float)[..., None, :]
+    lengths = np.asarray(electrical_lengths_rad, dtype=float)
+    shape = np.broadcast_shapes(impedances.shape, lengths.shape)[:-1]
+    a = np.ones(shape, dtype=complex)
+    b = np.zeros(shape, dtype=complex)
+    c = np.zeros(shape, dtype=complex)
+    d = np.ones(shape, dtype=complex)
+    cosines = np.cos(lengths)
+    sines = np.sin(lengths)
+    for index in range(lengths.shape[-1]):
+        z = impedances[..., index]
+        cos_t = cosines[..., index]
+        jsin = 1j * sines[..., index]
+        a, b, c, d = (
+            a * cos_t + b * jsin / z,
+            a * jsin * z + b * cos_t,
+            c * cos_t + d * jsin / z,
+            c * jsin * z + d * cos_t,
+        )
+    return Abcd(a, b, c, d)
+
+
+def input_impedance(network: Abcd, load_ohm: complex | np.ndarray) -> np.ndarray:
+    """Impedance looking into port 1 with port 2 terminated in the load."""
+    return (network.a * load_ohm + network.b) / (network.c * load_ohm + network.d)
+
+
+def reflection(impedance_ohm: np.ndarray, reference_ohm: float) -> np.ndarray:
+    """Reflection coefficient of an impedance against a real reference."""
+    return (impedance_ohm - reference_ohm) / (impedance_ohm + reference_ohm)
+
+
+def s_parameters(network: Abcd, source_ohm: float, load_ohm: float) -> tuple[np.ndarray, np.ndarray]:
+    """S11 and S21 with port 1 referenced to the source and port 2 to the (real) load."""
+    r1, r2 = source_ohm, load_ohm
+    denominator = network.a * r2 + network.b + network.c * r1 * r2 + network.d * r1
+    s11 = (network.a * r2 + network.b - network.c * r1 * r2 - network.d * r1) / denominator
+    s21 = 2.0 * np.sqrt(r1 * r2) / denominator
+    return s11, s21
+
+
+def junction_reflections(impedances_ohm: np.ndarray) -> np.ndarray:
+    """Reflection at each step between consecutive impedances (source, sections..., load)."""
+    z = np.asarray(impedances_ohm, dtype=float)
+    return (z[1:] - z[:-1]) / (z[1:] + z[:-1])

@@ -1,0 +1,60 @@
+"""Request for the exact analysis of a user's own list of line sections."""
+
+from __future__ import annotations
+
+from typing import Annotated
+
+from pydantic import Field, model_validator
+
+from service.schemas.common import (
+    DEFAULT_POINTS,
+    Band,
+    FrequencyHz,
+    ImpedanceOhm,
+    Load,
+    MaxReflection,
+    Points,
+    StrictModel,
+    VelocityFactor,
+)
+from service.schemas.transformers import DEFAULT_SPEC_REFLECTION
+
+MAX_ANALYZED_SECTIONS = 256
+
+
+class SectionSpec(StrictModel):
+    """One section: its impedance and either its physical or its electrical length."""
+
+    impedance_ohm: ImpedanceOhm
+    length_m: float | None = Field(None, gt=0.0, le=1e6, description="Physical length.")
+    electrical_length_deg: float | None = Field(
+        None, gt=0.0, le=36000.0, description="Electrical length at `reference_hz`."
+    )
+    reference_hz: FrequencyHz | None = Field(
+        None, description="Frequency of `electrical_length_deg`; the band centre when omitted."
+    )
+
+    @model_validator(mode="after")
+    def _one_length(self) -> SectionSpec:
+        if (self.length_m is None) == (self.electrical_length_deg is None):
+            raise ValueError("give exactly one of length_m and electrical_length_deg")
+        if self.reference_hz is not None and self.electrical_length_deg is None:
+            raise ValueError("reference_hz applies only with electrical_length_deg")
+        return self
+
+
+class AnalyzeRequest(StrictModel):
+    """Check a list of sections, source side first, between the source and the load."""
+
+    source_ohm: ImpedanceOhm
+    load: Load
+    band: Band
+    sections: Annotated[list[SectionSpec], Field(min_length=1, max_length=MAX_ANALYZED_SECTIONS)]
+    max_reflection: MaxReflection | None = None
+    points: Points = DEFAULT_POINTS
+    velocity_factor: VelocityFactor = 1.0
+
+    @property
+    def spec_reflection(self) -> float:
+        """The reflection the network is judged against: the request's, or the default."""
+        return DEFAULT_SPEC_REFLECTION if self.max_reflection is None else self.max_reflection

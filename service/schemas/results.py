@@ -1,0 +1,74 @@
+"""Response models: a verified design and the blocks it is made of."""
+
+from __future__ import annotations
+
+from pydantic import BaseModel, Field
+
+
+class SectionResult(BaseModel):
+    """One line section, listed from the source side to the load side."""
+
+    impedance_ohm: float = Field(description="Characteristic impedance of the section.")
+    electrical_length_deg: float = Field(description="Electrical length at the band centre.")
+    length_m: float = Field(description="Physical length on a line of the stated velocity factor.")
+
+
+class JunctionResult(BaseModel):
+    """The step between two consecutive impedances (source, sections ..., load)."""
+
+    reflection: float = Field(description="(Z_next - Z_prev) / (Z_next + Z_prev).")
+    transmission: float = Field(description="1 + reflection, the voltage transmission coefficient.")
+
+
+class PredictedFigures(BaseModel):
+    """What the synthesis theory predicts, before any exact check."""
+
+    max_reflection: float = Field(description="Largest |reflection| over the band by the theory.")
+    bandwidth_fraction: float = Field(
+        description=(
+            "Fractional bandwidth (delta f / f0) by the theory: the equal-ripple band for "
+            "Chebyshev, the band within the spec reflection for binomial and quarter-wave. "
+            "2.0 means the whole period 0 to 2 f0."
+        )
+    )
+    covers_band: bool = Field(description="Whether the theory keeps the spec over the whole band.")
+
+
+class VerifiedFigures(BaseModel):
+    """Figures from the exact ABCD cascade over the requested band."""
+
+    max_reflection: float
+    max_vswr: float
+    min_return_loss_db: float
+    worst_frequency_hz: float = Field(description="Where the largest reflection occurs.")
+    spec_max_reflection: float = Field(description="The spec the design is judged against.")
+    meets_spec: bool
+
+
+class ResponseCurve(BaseModel):
+    """The exact response at `points` frequencies spread evenly over the band."""
+
+    frequency_hz: list[float]
+    reflection_magnitude: list[float]
+    return_loss_db: list[float] = Field(description="Capped at 300 dB where the reflection is zero.")
+
+
+class AnalysisResult(BaseModel):
+    """The exact cascade's verdict on a list of sections."""
+
+    center_hz: float
+    sections: list[SectionResult]
+    total_length_m: float
+    junctions: list[JunctionResult]
+    verified: VerifiedFigures
+    response: ResponseCurve
+    velocity_factor: float
+    warnings: list[str] = Field(description="Plain sentences about anything worth a second look.")
+
+
+class TransformerDesign(AnalysisResult):
+    """A synthesized transformer with both the theory's prediction and the exact check."""
+
+    method: str
+    theory: str
+    predicted: PredictedFigures

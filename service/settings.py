@@ -1,0 +1,30 @@
+"""Runtime settings, read once from environment variables with the STEPLINE_ prefix."""
+
+from __future__ import annotations
+
+import os
+from dataclasses import dataclass, field
+from pathlib import Path
+
+PROJECT_ROOT = Path(__file__).resolve().parent.parent
+
+
+def _origins(raw: str) -> list[str]:
+    return [origin.strip() for origin in raw.split(",") if origin.strip()]
+
+
+@dataclass(frozen=True)
+class Settings:
+    """Everything an operator may set; every field has a safe default for a lab bench."""
+
+    examples_dir: Path = PROJECT_ROOT / "openapi_examples"
+    cors_allow_origins: list[str] = field(default_factory=list)
+
+    @classmethod
+    def from_env(cls) -> Settings:
+        """Settings from STEPLINE_* environment variables, defaults elsewhere."""
+        defaults = cls()
+        return cls(
+            examples_dir=Path(os.environ.get("STEPLINE_EXAMPLES_DIR", defaults.examples_dir)),
+            cors_allow_origins=_origins(os.environ.get("STEPLINE_CORS_ALLOW_ORIGINS", "")),
+        )

@@ -1,0 +1,63 @@
+"""POST /v1/networks/analyze: the exact check of a user's own sections."""
+
+import math
+
+import pytest
+
+
+def analyze(client, body: dict):
+    return client.post("/v1/networks/analyze", json=body)
+
+
+def test_analysis_equals_the_synthesized_design(client, base_request):
+    design = client.post("/v1/transformers/chebyshev", json=base_request | {"sections": 3}).json()
+    sections = [{"impedance_ohm": s["impedance_ohm"], "length_m": s["length_m"]} for s in design["sections"]]
+    result = analyze(client, base_request | {"sections": sections})
+    assert result.status_code == 200
+    body = result.json()
+    assert body["verified"]["max_reflection"] == pytest.approx(
+        design["verified"]["max_reflection"], rel=1e-12
+    )
+    assert body["response"] == design["response"]
+
+
+def test_electrical_length_at_a_reference_frequency(client, base_request):
+    # A 90 deg line at 1 GHz is 180 deg at the 2 GHz centre (electrical length grows with f).
+    sections = [{"impedance_ohm": 70.7, "electrical_length_deg": 90.0, "reference_hz": 1e9}]
+    body = analyze(client, base_request | {"sections": sections}).json()
+    assert body["sections"][0]["electrical_length_deg"] == pytest.approx(180.0)
+    assert body["sections"][0]["length_m"] == pytest.approx(299792458.0 / 1e9 / 4)
+
+
+def test_rounded_quarter_wave_figures(client, base_request):
+    # A 70 ohm quarter-wave (rounded from 70.7) between 50 and 100 ohm: at the centre
+    # Zin = 70^2 / 100 = 49 ohm, so |Gamma| >= |49 - 50| / 99 (textbook quarter-wave inversion).
+    narrow = base_request | {"band": {"start_hz": 1.99e9, "stop_hz": 2.01e9}, "points": 3}
+    body = analyze(
+        client, narrow | {"sections": [{"impedance_ohm": 70.0, "electrical_length_deg": 90.0}]}
+    ).json()
+    assert body["response"]["reflection_magnitude"][1] == pytest.approx(1 / 99, rel=1e-12)
+    assert body["verified"]["max_reflection"] >= 1 / 99
+    assert math.isclose(body["center_hz"], 2e9)
+
+
+@pytest.mark.parametrize(
+    "section, field",
+    [
+        ({"impedance_ohm": 70.0}, "sections[0]"),
+        ({"impedance_ohm": 70.0, "length_m": 0.1, "electrical_length_deg": 90.0}, "sections[0]"),
+        ({"impedance_ohm": -70.0, "length_m": 0.1}, "sections[0].impedance_ohm"),
+        ({"impedance_ohm": 70.0, "length_m": 0.0}, "sections[0].length_m"),
+        ({"impedance_ohm": 70.0, "length_m": 0.1, "reference_hz": 1e9}, "sections[0]"),
+    ],
+)
+def test_bad_sections_are_named(client, base_request, section, field):
+    response = analyze(client, base_request | {"sections": [section]})
+    assert response.status_code == 422
+    assert field in [p["field"] for p in response.json()["problems"]]
+
+
+def test_empty_section_list_is_refused(client, base_request):
+    response = analyze(client, base_request | {"sections": []})
+    assert response.status_code == 422
+    assert response.json()["problems"][0]["field"] == "sections"
