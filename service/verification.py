@@ -11,20 +11,22 @@ from dataclasses import dataclass
 import numpy as np
 
 from service import network
+from service.loads import LoadModel
 from service.schemas.results import JunctionResult, ResponseCurve, VerifiedFigures
 
 MIN_CHECK_POINTS = 2001
-CHECK_POINTS_PER_SECTION = 64
+MAX_CHECK_POINTS = 20001
+CHECK_POINTS_PER_LOBE = 32
 REFINE_POINTS = 129
 RETURN_LOSS_CAP_DB = 300.0
 
 
 @dataclass(frozen=True)
 class LineCascade:
-    """Sections between a real source and a real load, source side first."""
+    """Sections between a real source and a load, source side first."""
 
     source_ohm: float
-    load_ohm: float
+    load: LoadModel
     impedances_ohm: np.ndarray
     lengths_m: np.ndarray
     velocity_factor: float
@@ -33,8 +35,23 @@ class LineCascade:
         """|reflection| seen from the source line at each frequency."""
         lengths = network.electrical_length_rad(self.lengths_m, frequency_hz, self.velocity_factor)
         abcd = network.cascade(self.impedances_ohm, lengths)
-        z_in = network.input_impedance(abcd, self.load_ohm)
+        z_in = network.input_impedance(abcd, self.load.impedance_ohm(frequency_hz))
         return np.abs(network.reflection(z_in, self.source_ohm))
+
+    def with_sections(self, impedances_ohm: np.ndarray, lengths_m: np.ndarray) -> LineCascade:
+        """The same source and load with other sections."""
+        return LineCascade(self.source_ohm, self.load, impedances_ohm, lengths_m, self.velocity_factor)
+
+
+def check_grid_points(line: LineCascade, stop_hz: float) -> int:
+    """Enough frequencies to sample every lobe of the response several times.
+
+    The response of a line of total electrical length Theta at the top of the band can turn
+    through at most about 2 Theta / pi lobes between DC and there.
+    """
+    electrical = network.electrical_length_rad(line.lengths_m, np.array([stop_hz]), line.velocity_factor)
+    lobes = math.ceil(2.0 * float(np.sum(electrical)) / math.pi) + 1
+    return int(np.clip(CHECK_POINTS_PER_LOBE * lobes + 1, MIN_CHECK_POINTS, MAX_CHECK_POINTS))
 
 
 def return_loss_db(reflection: np.ndarray | float) -> np.ndarray:
@@ -51,10 +68,10 @@ def vswr(reflection: float) -> float:
 def worst_reflection(line: LineCascade, start_hz: float, stop_hz: float) -> tuple[float, float]:
     """Largest |reflection| over [start, stop] and where it occurs.
 
-    A dense grid finds the worst peak (several points per ripple for any section count), and a
-    finer grid between its neighbours pins it down.
+    A dense grid finds the worst peak (many points per lobe of the response), and a finer grid
+    between its neighbours pins it down.
     """
-    count = max(MIN_CHECK_POINTS, CHECK_POINTS_PER_SECTION * line.impedances_ohm.size + 1)
+    count = check_grid_points(line, stop_hz)
     grid = np.linspace(start_hz, stop_hz, count)
     values = line.reflection(grid)
     index = int(np.argmax(values))
@@ -93,8 +110,16 @@ def response_curve(line: LineCascade, start_hz: float, stop_hz: float, points: i
 
 
 def junction_results(line: LineCascade) -> list[JunctionResult]:
-    """Reflection and transmission at every step, source to load."""
-    chain = np.concatenate(([line.source_ohm], line.impedances_ohm, [line.load_ohm]))
+    """Reflection and transmission at every step, source to load.
+
+    The step into the load is listed only for a fixed resistive load; for other loads its
+    reflection is complex or changes with frequency.
+    """
+    chain = np.concatenate(([line.source_ohm], line.impedances_ohm))
+    if not line.load.frequency_dependent:
+        load = complex(line.load.impedance_ohm(np.zeros(1))[0])
+        if load.imag == 0.0:
+            chain = np.append(chain, load.real)
     return [
         JunctionResult(reflection=float(r), transmission=float(1.0 + r))
         for r in network.junction_reflections(chain)

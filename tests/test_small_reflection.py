@@ -14,7 +14,7 @@ from service.design import (
     chebyshev_sections_for,
     quarter_wave,
 )
-from service.design.small_reflection import chebyshev_peak, chebyshev_weights
+from service.design.multisection import chebyshev_peak, chebyshev_weights
 
 
 def test_binomial_three_sections_textbook_example():

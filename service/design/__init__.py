@@ -1,6 +1,6 @@
 """Pure synthesis of matching transformers: floats and arrays in, plain dataclasses out."""
 
-from service.design.small_reflection import (
+from service.design.multisection import (
     InfeasibleDesignError,
     binomial,
     binomial_sections_for,
@@ -9,10 +9,15 @@ from service.design.small_reflection import (
     quarter_wave,
 )
 from service.design.stepped import SteppedDesign, band_edge_angle_rad, load_reflection
+from service.design.theory import EXACT, SMALL_REFLECTION, THEORIES, Theory
 
 __all__ = [
+    "EXACT",
+    "SMALL_REFLECTION",
+    "THEORIES",
     "InfeasibleDesignError",
     "SteppedDesign",
+    "Theory",
     "band_edge_angle_rad",
     "binomial",
     "binomial_sections_for",

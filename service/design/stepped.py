@@ -12,22 +12,26 @@ QUARTER_WAVE_RAD = math.pi / 2
 
 @dataclass(frozen=True)
 class SteppedDesign:
-    """Section impedances (source side first) and what the synthesis theory predicts.
+    """Section impedances and electrical lengths at the centre frequency (source side first),
+    with what the synthesis theory predicts.
 
-    Every section is a quarter wave long at the design (centre) frequency.
     `predicted_max_reflection` is the theory's largest |reflection| over the requested band and
     `predicted_bandwidth_fraction` the theory's fractional bandwidth (see each method).
     """
 
     impedances_ohm: np.ndarray
+    electrical_length_rad: np.ndarray
     predicted_max_reflection: float
     predicted_bandwidth_fraction: float
     notes: tuple[str, ...] = ()
 
-    @property
-    def electrical_length_rad(self) -> np.ndarray:
-        """Electrical length of each section at the centre frequency."""
-        return np.full(self.impedances_ohm.shape, QUARTER_WAVE_RAD)
+    @classmethod
+    def quarter_waves(
+        cls, impedances_ohm: np.ndarray, predicted: float, fraction: float, notes: tuple[str, ...] = ()
+    ) -> SteppedDesign:
+        """A design whose sections are all a quarter wave long at the centre frequency."""
+        lengths = np.full(impedances_ohm.shape, QUARTER_WAVE_RAD)
+        return cls(impedances_ohm, lengths, predicted, fraction, notes)
 
 
 def load_reflection(source_ohm: float, load_ohm: float) -> float:

@@ -57,25 +57,6 @@ class StrictModel(BaseModel):
     model_config = ConfigDict(strict=True, allow_inf_nan=False, extra="forbid")
 
 
-class Load(StrictModel):
-    """The impedance to be matched, at the design frequency."""
-
-    resistance_ohm: ImpedanceOhm
-    reactance_ohm: float = Field(
-        0.0,
-        ge=-MAX_IMPEDANCE_OHM,
-        le=MAX_IMPEDANCE_OHM,
-        description="Load reactance in ohm; only 0 (a resistive load) is supported so far.",
-    )
-
-    @field_validator("reactance_ohm")
-    @classmethod
-    def _resistive_only(cls, value: float) -> float:
-        if value != 0.0:
-            raise ValueError("reactive loads are not supported yet; give a resistive load (0 ohm)")
-        return value
-
-
 class Band(StrictModel):
     """The frequency band to be matched; its arithmetic centre is the design frequency."""
 

@@ -7,17 +7,11 @@ from typing import Annotated
 from pydantic import Field, model_validator
 
 from service.schemas.common import (
-    DEFAULT_POINTS,
-    Band,
     FrequencyHz,
     ImpedanceOhm,
-    Load,
-    MaxReflection,
-    Points,
     StrictModel,
-    VelocityFactor,
 )
-from service.schemas.transformers import DEFAULT_SPEC_REFLECTION
+from service.schemas.transformers import MatchRequest
 
 MAX_ANALYZED_SECTIONS = 256
 
@@ -43,18 +37,7 @@ class SectionSpec(StrictModel):
         return self
 
 
-class AnalyzeRequest(StrictModel):
+class AnalyzeRequest(MatchRequest):
     """Check a list of sections, source side first, between the source and the load."""
 
-    source_ohm: ImpedanceOhm
-    load: Load
-    band: Band
     sections: Annotated[list[SectionSpec], Field(min_length=1, max_length=MAX_ANALYZED_SECTIONS)]
-    max_reflection: MaxReflection | None = None
-    points: Points = DEFAULT_POINTS
-    velocity_factor: VelocityFactor = 1.0
-
-    @property
-    def spec_reflection(self) -> float:
-        """The reflection the network is judged against: the request's, or the default."""
-        return DEFAULT_SPEC_REFLECTION if self.max_reflection is None else self.max_reflection

@@ -32,6 +32,12 @@ class PredictedFigures(BaseModel):
         )
     )
     covers_band: bool = Field(description="Whether the theory keeps the spec over the whole band.")
+    departure_fraction: float = Field(
+        description=(
+            "How far the exact cascade's worst reflection departs from this prediction: "
+            "verified / predicted - 1."
+        )
+    )
 
 
 class VerifiedFigures(BaseModel):
@@ -53,6 +59,24 @@ class ResponseCurve(BaseModel):
     return_loss_db: list[float] = Field(description="Capped at 300 dB where the reflection is zero.")
 
 
+class BodeFanoFigures(BaseModel):
+    """The Bode-Fano limit for an R-C or R-L load, beside what the line achieves."""
+
+    min_reflection: float = Field(
+        description="Lowest constant |reflection| any lossless network can hold over the band."
+    )
+    verified_max_reflection: float = Field(description="The worst reflection this line gives.")
+    spec_beats_bound: bool = Field(description="True when the spec asks for less than any network can give.")
+
+
+class RefinementFigures(BaseModel):
+    """The exact figures before and after the minimax refinement of the sections."""
+
+    before: VerifiedFigures
+    after: VerifiedFigures
+    iterations: int
+
+
 class AnalysisResult(BaseModel):
     """The exact cascade's verdict on a list of sections."""
 
@@ -63,6 +87,7 @@ class AnalysisResult(BaseModel):
     verified: VerifiedFigures
     response: ResponseCurve
     velocity_factor: float
+    bode_fano: BodeFanoFigures | None = Field(None, description="Given for lumped R-C and R-L loads.")
     warnings: list[str] = Field(description="Plain sentences about anything worth a second look.")
 
 
@@ -72,3 +97,6 @@ class TransformerDesign(AnalysisResult):
     method: str
     theory: str
     predicted: PredictedFigures
+    refinement: RefinementFigures | None = Field(
+        None, description="Given for loads that change with frequency, whose sections are refined."
+    )

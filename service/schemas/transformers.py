@@ -6,33 +6,33 @@ from typing import Literal
 
 from pydantic import Field
 
-from service.design.small_reflection import MAX_SECTIONS
+from service.design.multisection import MAX_SECTIONS
 from service.schemas.common import (
     DEFAULT_POINTS,
     Band,
     ImpedanceOhm,
-    Load,
     MaxReflection,
     Points,
     StrictModel,
     VelocityFactor,
 )
+from service.schemas.loads import Load
 
 DEFAULT_SPEC_REFLECTION = 0.1  # 20 dB return loss, used when a request states no spec
 
+TheoryName = Literal["small-reflection", "exact"]
 
-class TransformerRequest(StrictModel):
-    """Match `load` to a line of `source_ohm` over `band` with a multi-section transformer.
 
-    Give `sections`, `max_reflection`, both or neither. Without `max_reflection` the spec that
-    `verified.meets_spec` is judged against is |reflection| <= 0.1 (20 dB return loss).
-    Without `sections` the smallest section count that meets the spec over the band is used.
+class MatchRequest(StrictModel):
+    """What every design request states: source, load, band, spec and the curve wanted.
+
+    Without `max_reflection` the spec that `verified.meets_spec` is judged against is
+    |reflection| <= 0.1 (20 dB return loss).
     """
 
     source_ohm: ImpedanceOhm
     load: Load
     band: Band
-    sections: int | None = Field(None, ge=1, le=MAX_SECTIONS, description="Number of quarter-wave sections.")
     max_reflection: MaxReflection | None = None
     points: Points = DEFAULT_POINTS
     velocity_factor: VelocityFactor = 1.0
@@ -43,7 +43,24 @@ class TransformerRequest(StrictModel):
         return DEFAULT_SPEC_REFLECTION if self.max_reflection is None else self.max_reflection
 
 
-class QuarterWaveRequest(TransformerRequest):
+class TransformerRequest(MatchRequest):
+    """Match `load` to a line of `source_ohm` over `band` with a multi-section transformer.
+
+    Give `sections`, `max_reflection`, both or neither. Without `sections` the smallest section
+    count that meets the spec over the band is used.
+    """
+
+    sections: int | None = Field(None, ge=1, le=MAX_SECTIONS, description="Number of quarter-wave sections.")
+    theory: TheoryName = Field(
+        "small-reflection",
+        description=(
+            "small-reflection: the classic approximate synthesis; exact: synthesis from the "
+            "insertion-loss function of the commensurate cascade, which holds for any ratio."
+        ),
+    )
+
+
+class QuarterWaveRequest(MatchRequest):
     """A single quarter-wave section of impedance sqrt(Z0 RL)."""
 
     sections: Literal[1] | None = Field(

@@ -1,8 +1,10 @@
-"""Quarter-wave, binomial and Chebyshev transformers from small-reflection theory.
+"""Quarter-wave, binomial and Chebyshev stepped transformers, in either synthesis theory.
 
-The theory treats the total reflection as the sum of the junction reflections, each delayed
-by its round trip: Gamma(theta) = sum_n Gamma_n exp(-2 j n theta). The binomial (maximally flat)
-and Chebyshev (equal ripple) designs choose the Gamma_n so that this sum has the wanted shape.
+The response of N quarter-wave sections is a polynomial in z = exp(-2j theta) whose
+coefficients are the junction weights: sum_n w_n exp(-2jn theta). The binomial (maximally flat)
+design takes w_n = C(N, n), giving cos^N theta; the Chebyshev (equal ripple) design takes the
+weights of T_N(scale cos theta). The theory (see theory.py) sets what the polynomial shapes,
+the reflection or the insertion-loss function, and how impedances follow from the weights.
 """
 
 from __future__ import annotations
@@ -13,12 +15,8 @@ import numpy as np
 from numpy.polynomial import chebyshev as cheb
 from scipy.special import comb
 
-from service.design.stepped import (
-    SteppedDesign,
-    fraction_from_edge_angle,
-    impedances_from_weights,
-    load_reflection,
-)
+from service.design.stepped import SteppedDesign, fraction_from_edge_angle, load_reflection
+from service.design.theory import SMALL_REFLECTION, Theory
 
 MAX_SECTIONS = 32
 FULL_BAND_FRACTION = 2.0  # the whole period 0 .. 2 f0 of a commensurate line
@@ -46,11 +44,11 @@ def quarter_wave(
             / (math.sqrt(1.0 - spec_reflection**2) * mismatch)
         )
         fraction = fraction_from_edge_angle(math.acos(cos_edge))
-    return SteppedDesign(np.array([impedance]), predicted, fraction)
+    return SteppedDesign.quarter_waves(np.array([impedance]), predicted, fraction)
 
 
 def binomial_weights(sections: int) -> np.ndarray:
-    """Junction weights C(N, n), n = 0..N, of the maximally flat response."""
+    """Junction weights C(N, n), n = 0..N, of the maximally flat response cos^N theta."""
     return comb(sections, np.arange(sections + 1))
 
 
@@ -60,33 +58,43 @@ def binomial(
     sections: int,
     edge_angle_rad: float,
     spec_reflection: float,
+    theory: Theory = SMALL_REFLECTION,
 ) -> SteppedDesign:
-    """Binomial design: |Gamma| = |rho| |cos theta|^N, with bandwidth quoted at the spec reflection."""
-    rho = abs(load_reflection(source_ohm, load_ohm))
-    impedances = impedances_from_weights(source_ohm, load_ohm, binomial_weights(sections))
-    predicted = rho * abs(math.cos(edge_angle_rad)) ** sections
-    if spec_reflection >= rho:
+    """Binomial design: measure(|Gamma|) = measure(|rho|) |cos theta|^N.
+
+    The predicted bandwidth is the band within the spec reflection.
+    """
+    rho = theory.measure(abs(load_reflection(source_ohm, load_ohm)))
+    spec = theory.measure(spec_reflection)
+    impedances = theory.impedances(source_ohm, load_ohm, binomial_weights(sections))
+    predicted = theory.unmeasure(rho * abs(math.cos(edge_angle_rad)) ** sections)
+    if spec >= rho:
         fraction = FULL_BAND_FRACTION
     else:
-        fraction = fraction_from_edge_angle(math.acos((spec_reflection / rho) ** (1.0 / sections)))
-    return SteppedDesign(impedances, predicted, fraction)
+        fraction = fraction_from_edge_angle(math.acos((spec / rho) ** (1.0 / sections)))
+    return SteppedDesign.quarter_waves(impedances, predicted, fraction)
 
 
 def binomial_sections_for(
-    source_ohm: float, load_ohm: float, edge_angle_rad: float, max_reflection: float
+    source_ohm: float,
+    load_ohm: float,
+    edge_angle_rad: float,
+    max_reflection: float,
+    theory: Theory = SMALL_REFLECTION,
 ) -> int:
     """Smallest N whose binomial response stays within max_reflection over the band."""
-    rho = abs(load_reflection(source_ohm, load_ohm))
-    if rho <= max_reflection:
+    rho = theory.measure(abs(load_reflection(source_ohm, load_ohm)))
+    spec = theory.measure(max_reflection)
+    if rho <= spec:
         return 1
     log_cos = math.log(math.cos(edge_angle_rad))
     if log_cos == 0.0:
         raise InfeasibleDesignError("the band reaches down to DC, where no stepped line can match")
-    return _at_least_one(math.log(max_reflection / rho) / log_cos, "binomial")
+    return _at_least_one(math.log(spec / rho) / log_cos, "binomial")
 
 
 def chebyshev_weights(sections: int, scale: float) -> np.ndarray:
-    """Junction weights of A T_N(scale cos theta), n = 0..N, from its cos((N-2n) theta) terms.
+    """Junction weights of T_N(scale cos theta), n = 0..N, from its cos((N-2n) theta) terms.
 
     T_N(scale x) is expanded into powers of x and re-expressed as a Chebyshev series in x,
     because cos(m theta) = T_m(cos theta). The coefficient b_m of cos(m theta) belongs half to
@@ -119,44 +127,51 @@ def chebyshev(
     sections: int,
     edge_angle_rad: float,
     ripple: float | None = None,
+    theory: Theory = SMALL_REFLECTION,
 ) -> SteppedDesign:
-    """Chebyshev (equal ripple) design.
+    """Chebyshev (equal ripple) design: measure(|Gamma|) = measure(|rho|) |T_N(scale cos theta)| / T_N(scale).
 
     With no ripple the equal-ripple edges are put on the band limits, the lowest ripple N
     sections can give over the band. With a ripple the edges follow from it. The predicted
     bandwidth is the equal-ripple band.
     """
-    rho = abs(load_reflection(source_ohm, load_ohm))
+    rho_reflection = abs(load_reflection(source_ohm, load_ohm))
+    rho = theory.measure(rho_reflection)
     notes: tuple[str, ...] = ()
     if ripple is None:
         scale = 1.0 / math.cos(edge_angle_rad)
-    elif ripple < rho:
-        scale = math.cosh(math.acosh(rho / ripple) / sections)
+    elif ripple < rho_reflection:
+        scale = math.cosh(math.acosh(rho / theory.measure(ripple)) / sections)
     else:
         scale = 1.0
         notes = (
-            f"The bare load reflects only {rho:.4g}, within the requested ripple {ripple:.4g}: "
-            "the equal-ripple design degenerates to |Gamma| = |rho cos(N theta)|, which never "
-            "exceeds the load's own reflection.",
+            f"The bare load reflects only {rho_reflection:.4g}, within the requested ripple "
+            f"{ripple:.4g}: the equal-ripple design degenerates to a response that never exceeds "
+            "the load's own reflection.",
         )
     design_ripple = rho / chebyshev_peak(sections, scale)
-    impedances = impedances_from_weights(source_ohm, load_ohm, chebyshev_weights(sections, scale))
-    predicted = design_ripple * chebyshev_peak(sections, scale * math.cos(edge_angle_rad))
+    impedances = theory.impedances(source_ohm, load_ohm, chebyshev_weights(sections, scale))
+    predicted = theory.unmeasure(design_ripple * chebyshev_peak(sections, scale * math.cos(edge_angle_rad)))
     fraction = fraction_from_edge_angle(math.acos(1.0 / scale))
-    return SteppedDesign(impedances, predicted, fraction, notes)
+    return SteppedDesign.quarter_waves(impedances, predicted, fraction, notes)
 
 
 def chebyshev_sections_for(
-    source_ohm: float, load_ohm: float, edge_angle_rad: float, max_reflection: float
+    source_ohm: float,
+    load_ohm: float,
+    edge_angle_rad: float,
+    max_reflection: float,
+    theory: Theory = SMALL_REFLECTION,
 ) -> int:
     """Smallest N whose equal-ripple response over the band stays within max_reflection."""
-    rho = abs(load_reflection(source_ohm, load_ohm))
-    if rho <= max_reflection:
+    rho = theory.measure(abs(load_reflection(source_ohm, load_ohm)))
+    spec = theory.measure(max_reflection)
+    if rho <= spec:
         return 1
     spread = math.acosh(1.0 / math.cos(edge_angle_rad))
     if spread == 0.0:
         raise InfeasibleDesignError("the band reaches down to DC, where no stepped line can match")
-    return _at_least_one(math.acosh(rho / max_reflection) / spread, "Chebyshev")
+    return _at_least_one(math.acosh(rho / spec) / spread, "Chebyshev")
 
 
 def _at_least_one(required: float, method: str) -> int:

@@ -1,0 +1,66 @@
+"""Minimax refinement of a line's sections against a load that changes with frequency.
+
+The synthesized design matches the load at the centre frequency only. Here the section
+impedances and lengths are adjusted (SciPy SLSQP on the epigraph form: minimize t subject to
+|Gamma(f_k)|^2 <= t on a grid over the band) so that the worst in-band reflection is as small as
+the optimizer can make it. The exact cascade is both the objective and the final judge.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+from scipy.optimize import minimize
+
+from service.verification import LineCascade, worst_reflection
+
+GRID_POINTS = 81
+MAX_ITERATIONS = 150
+IMPEDANCE_FREEDOM = 4.0  # each impedance may move within a factor of this
+MAX_LENGTH_FACTOR = 2.0  # each length may shrink to zero or grow to this many times a quarter wave
+
+
+@dataclass(frozen=True)
+class Refinement:
+    """The line before and after refinement, and how long the optimizer worked."""
+
+    before: LineCascade
+    after: LineCascade
+    iterations: int
+
+
+def refine_minimax(line: LineCascade, start_hz: float, stop_hz: float, quarter_wave_m: float) -> Refinement:
+    """Adjust impedances and lengths for the smallest worst-case reflection over the band.
+
+    The result is never worse than the start: if the optimizer does not improve the worst
+    reflection on the dense check grid, the original line is kept.
+    """
+    grid = np.linspace(start_hz, stop_hz, GRID_POINTS)
+    count = line.impedances_ohm.size
+    log_start = np.log(line.impedances_ohm)
+
+    def unpack(x: np.ndarray) -> LineCascade:
+        return line.with_sections(np.exp(x[:count]), x[count : 2 * count] * quarter_wave_m)
+
+    def margins(x: np.ndarray) -> np.ndarray:
+        return x[-1] - unpack(x).reflection(grid) ** 2
+
+    start = np.concatenate((log_start, line.lengths_m / quarter_wave_m, [0.0]))
+    start[-1] = float(np.max(line.reflection(grid) ** 2))
+    spread = np.log(IMPEDANCE_FREEDOM)
+    bounds = [(z - spread, z + spread) for z in log_start]
+    bounds += [(0.0, MAX_LENGTH_FACTOR)] * count + [(0.0, 1.0)]
+    result = minimize(
+        lambda x: x[-1],
+        start,
+        jac=lambda x: np.eye(x.size)[-1],
+        method="SLSQP",
+        bounds=bounds,
+        constraints=[{"type": "ineq", "fun": margins}],
+        options={"maxiter": MAX_ITERATIONS, "ftol": 1e-12},
+    )
+    refined = unpack(result.x)
+    if worst_reflection(refined, start_hz, stop_hz)[0] >= worst_reflection(line, start_hz, stop_hz)[0]:
+        refined = line
+    return Refinement(line, refined, int(result.nit))

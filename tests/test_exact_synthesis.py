@@ -1,0 +1,129 @@
+"""Exact synthesis from the insertion-loss function, checked on an independent ABCD cascade."""
+
+import math
+
+import numpy as np
+import pytest
+from scipy.optimize import minimize_scalar
+from scipy.signal import argrelmax
+
+from service import network
+from service.design import EXACT, SMALL_REFLECTION, band_edge_angle_rad, binomial, chebyshev
+
+
+def reflection_of(impedances, source, load, theta):
+    """|Gamma| of quarter-wave (at theta = pi/2) sections, by service.network alone."""
+    theta = np.atleast_1d(theta)
+    abcd = network.cascade(impedances, np.outer(theta, np.ones(len(impedances))))
+    return np.abs(network.reflection(network.input_impedance(abcd, load), source))
+
+
+def in_band_peaks(impedances, source, load, edge):
+    """Every local maximum of |Gamma| strictly inside the band, each refined by SciPy."""
+    theta = np.linspace(edge, math.pi - edge, 40001)
+    values = reflection_of(impedances, source, load, theta)
+    peaks = []
+    for index in argrelmax(values)[0]:
+        found = minimize_scalar(
+            lambda t: -reflection_of(impedances, source, load, t)[0],
+            bounds=(theta[index - 1], theta[index + 1]),
+            method="bounded",
+            options={"xatol": 1e-12},
+        )
+        peaks.append(-found.fun)
+    return np.array(peaks), values
+
+
+def loss_to_reflection(measure):
+    return measure / math.sqrt(1 + measure**2)
+
+
+@pytest.mark.parametrize("sections", [2, 3, 4, 6, 8, 11, 16])
+@pytest.mark.parametrize("ratio", [1.5, 4.0, 20.0, 100.0])
+def test_exact_chebyshev_has_equal_ripple_and_edges_on_the_band(sections, ratio):
+    # Collin (1955), Riblet (1957): with |Gamma|^2/(1-|Gamma|^2) = k^2 T_N^2(cos theta / cos theta_m)
+    # the cascade's in-band peaks all equal the ripple and the band edges sit at theta_m.
+    source, load = 50.0, 50.0 * ratio
+    edge = band_edge_angle_rad(1.0, 3.0 if ratio < 50 else 2.2)
+    design = chebyshev(source, load, sections, edge, None, EXACT)
+    rho = (load - source) / (load + source)
+    ripple = loss_to_reflection(
+        rho / math.sqrt(1 - rho**2) / math.cosh(sections * math.acosh(1 / math.cos(edge)))
+    )
+    peaks, values = in_band_peaks(design.impedances_ohm, source, load, edge)
+    assert len(peaks) == sections - 1
+    assert np.max(np.abs(peaks / ripple - 1)) < 1e-6
+    assert values[0] == pytest.approx(ripple, rel=1e-6) and values[-1] == pytest.approx(ripple, rel=1e-6)
+    assert design.predicted_max_reflection == pytest.approx(ripple, rel=1e-12)
+    z = design.impedances_ohm
+    # Antimetry Z_n Z_{N+1-n} = Z0 ZL holds for exact Chebyshev transformers too (Riblet 1957).
+    assert z * z[::-1] == pytest.approx(np.full(sections, source * load), rel=1e-8)
+
+
+@pytest.mark.parametrize("sections", [1, 2, 4, 8, 16])
+@pytest.mark.parametrize("ratio", [2.0, 10.0, 100.0])
+def test_exact_maximally_flat(sections, ratio):
+    # |Gamma|^2/(1-|Gamma|^2) = k^2 cos^{2N} theta: zero reflection at the centre and the
+    # band-edge value given by the formula, on the independent cascade.
+    source, load = 50.0, 50.0 / ratio
+    edge = band_edge_angle_rad(1.0, 3.0)
+    design = binomial(source, load, sections, edge, 0.05, EXACT)
+    rho = (load - source) / (load + source)
+    kappa = abs(rho) / math.sqrt(1 - rho**2)
+    theta = np.array([edge, math.pi / 2, math.pi - edge])
+    values = reflection_of(design.impedances_ohm, source, load, theta)
+    expected_edge = loss_to_reflection(kappa * math.cos(edge) ** sections)
+    assert values[1] < 1e-9
+    assert values[0] == pytest.approx(expected_edge, rel=1e-8)
+    assert values[2] == pytest.approx(expected_edge, rel=1e-8)
+    assert design.predicted_max_reflection == pytest.approx(expected_edge, rel=1e-12)
+
+
+def test_one_section_exact_is_the_quarter_wave():
+    # N = 1: both exact designs reduce to Z1 = sqrt(Z0 ZL) (textbook quarter-wave result).
+    edge = band_edge_angle_rad(1.0, 3.0)
+    for design in (binomial(50, 200, 1, edge, 0.1, EXACT), chebyshev(50, 200, 1, edge, None, EXACT)):
+        assert design.impedances_ohm == pytest.approx([100.0], rel=1e-12)
+
+
+@pytest.mark.parametrize("method", ["binomial", "chebyshev"])
+def test_theories_converge_for_small_ratios(method):
+    # As ZL/Z0 -> 1 the small-reflection and exact theories agree (their difference is of third
+    # order in the reflection; Collin 1955).
+    edge = band_edge_angle_rad(1.0, 3.0)
+    previous = None
+    for ratio in (1.5, 1.1, 1.02):
+        if method == "binomial":
+            approx, exact = (
+                binomial(50, 50 * ratio, 4, edge, 0.1, t).impedances_ohm for t in (SMALL_REFLECTION, EXACT)
+            )
+        else:
+            approx, exact = (
+                chebyshev(50, 50 * ratio, 4, edge, None, t).impedances_ohm for t in (SMALL_REFLECTION, EXACT)
+            )
+        difference = np.max(np.abs(np.log(exact / approx)))
+        assert previous is None or difference < previous / 10
+        previous = difference
+    assert previous < 1e-5
+
+
+def test_exact_api_meets_spec_where_small_reflection_misses(client, base_request):
+    # 50 -> 1000 ohm, 6 sections with a 0.1 ripple: the equal-ripple band covers 1-3 GHz.
+    body = base_request | {"load": {"resistance_ohm": 1000.0}, "sections": 6, "max_reflection": 0.1}
+    approx = client.post("/v1/transformers/chebyshev", json=body).json()
+    exact = client.post("/v1/transformers/chebyshev", json=body | {"theory": "exact"}).json()
+    assert exact["theory"] == "exact" and exact["predicted"]["covers_band"]
+    assert exact["verified"]["max_reflection"] == pytest.approx(0.1, rel=1e-6)
+    assert abs(exact["predicted"]["departure_fraction"]) < 1e-6
+    assert exact["verified"]["meets_spec"]
+    assert approx["verified"]["max_reflection"] > 0.1
+    assert any("Try theory 'exact'" in warning for warning in approx["warnings"])
+
+
+def test_exact_spec_driven_is_smallest(client, base_request):
+    body = base_request | {"load": {"resistance_ohm": 2000.0}, "max_reflection": 0.05, "theory": "exact"}
+    result = client.post("/v1/transformers/chebyshev", json=body).json()
+    count = len(result["sections"])
+    assert result["verified"]["meets_spec"] and not result["warnings"]
+    fewer = client.post("/v1/transformers/chebyshev", json=body | {"sections": count - 1}).json()
+    assert not fewer["verified"]["meets_spec"]
