@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from service import design
+from service.design.stepped import QUARTER_WAVE_RAD
 from service.designer.lines import Target, checked_blocks, line_for
 from service.designer.reporting import (
     bode_fano_warnings,
@@ -32,9 +33,7 @@ def finish(
     verified = verified_figures(line, band.start_hz, band.stop_hz, spec)
     refinement = None
     if target.load.frequency_dependent:
-        quarter = float(
-            length_for_angle_m(design.stepped.QUARTER_WAVE_RAD, band.center_hz, request.velocity_factor)
-        )
+        quarter = float(length_for_angle_m(QUARTER_WAVE_RAD, band.center_hz, request.velocity_factor))
         refined = refine_minimax(line, band.start_hz, band.stop_hz, quarter)
         line = refined.after
         after = verified_figures(line, band.start_hz, band.stop_hz, spec)
@@ -50,7 +49,14 @@ def finish(
     requested_fraction = (band.stop_hz - band.start_hz) / band.center_hz
     warnings = [*synthesized.notes, *(notes or []), *coverage_warnings(spec, requested_fraction, predicted)]
     suggest_exact = theory == design.SMALL_REFLECTION.name and method in THEORY_METHODS
-    warnings += spec_warnings(verified, suggest_exact) + departure_warnings(predicted, verified, theory)
+    warnings += spec_warnings(verified, suggest_exact)
+    if target.rotation is None and not target.load.frequency_dependent:
+        warnings += departure_warnings(predicted, verified, theory)
+    else:
+        warnings.append(
+            f"The {theory} prediction covers the transformer into the load's centre-frequency "
+            f"resistance ({target.resistance_ohm:.6g} ohm) only; for this load rely on the verified figures."
+        )
     warnings += bode_fano_warnings(blocks["bode_fano"], spec)
     if target.rotation is not None:
         warnings.append(_rotation_note(request, target))
