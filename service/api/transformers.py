@@ -8,6 +8,7 @@ from service import designer
 from service.api.documented import error_responses
 from service.examples import request_examples
 from service.schemas.results import TransformerDesign
+from service.schemas.tapers import TaperRequest
 from service.schemas.transformers import QuarterWaveRequest, TransformerRequest
 from service.settings import Settings
 
@@ -19,6 +20,7 @@ def build_router(settings: Settings) -> APIRouter:
     quarter_wave_examples = request_examples(settings.examples_dir, "transformers/quarter-wave")
     binomial_examples = request_examples(settings.examples_dir, "transformers/binomial")
     chebyshev_examples = request_examples(settings.examples_dir, "transformers/chebyshev")
+    taper_examples = request_examples(settings.examples_dir, "transformers/taper")
 
     @router.post("/quarter-wave", response_model=TransformerDesign, summary="Quarter-wave transformer")
     def quarter_wave(
@@ -40,5 +42,10 @@ def build_router(settings: Settings) -> APIRouter:
     ) -> TransformerDesign:
         """Equal-ripple multi-section transformer; N, ripple, both, or neither (spec 0.1)."""
         return designer.chebyshev(request)
+
+    @router.post("/taper", response_model=TransformerDesign, summary="Tapered line")
+    def taper(request: Annotated[TaperRequest, Body(openapi_examples=taper_examples)]) -> TransformerDesign:
+        """Exponential, triangular or Klopfenstein taper, cut into equal steps and checked exactly."""
+        return designer.tapered(request)
 
     return router

@@ -5,5 +5,6 @@ The only package that calls both the synthesis theory and the independent networ
 
 from service.designer.analysis import analyze
 from service.designer.stepped import binomial, chebyshev, quarter_wave
+from service.designer.tapered import tapered
 
-__all__ = ["analyze", "binomial", "chebyshev", "quarter_wave"]
+__all__ = ["analyze", "binomial", "chebyshev", "quarter_wave", "tapered"]

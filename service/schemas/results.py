@@ -96,6 +96,7 @@ class TransformerDesign(AnalysisResult):
 
     method: str
     theory: str
+    profile: str | None = Field(None, description="The taper profile, for method 'taper'.")
     predicted: PredictedFigures
     refinement: RefinementFigures | None = Field(
         None, description="Given for loads that change with frequency, whose sections are refined."

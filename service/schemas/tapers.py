@@ -1,0 +1,27 @@
+"""Request for a continuously tapered line, discretized into steps."""
+
+from __future__ import annotations
+
+from typing import Literal
+
+from pydantic import Field
+
+from service.schemas.transformers import MatchRequest
+
+MAX_SEGMENTS = 1024
+DEFAULT_SEGMENTS = 64
+
+
+class TaperRequest(MatchRequest):
+    """A taper from the source line to the load, returned as `segments` equal steps.
+
+    Give `max_reflection` and the length follows from the lower band edge (the shortest taper
+    of this profile within the spec there and above); give `length_m` and the achieved
+    reflection is reported. Klopfenstein's taper puts its passband edge on the lower band limit.
+    """
+
+    profile: Literal["exponential", "triangular", "klopfenstein"] = "klopfenstein"
+    length_m: float | None = Field(None, gt=0.0, le=1e4, description="Physical length of the taper.")
+    segments: int = Field(
+        DEFAULT_SEGMENTS, ge=2, le=MAX_SEGMENTS, description="Equal steps the taper is cut into."
+    )
