@@ -7,6 +7,7 @@ from fastapi import APIRouter, Body
 from service import designer
 from service.api.documented import error_responses
 from service.examples import request_examples
+from service.schemas.comparison import CompareRequest, Comparison
 from service.schemas.results import TransformerDesign
 from service.schemas.tapers import TaperRequest
 from service.schemas.transformers import QuarterWaveRequest, TransformerRequest
@@ -21,6 +22,7 @@ def build_router(settings: Settings) -> APIRouter:
     binomial_examples = request_examples(settings.examples_dir, "transformers/binomial")
     chebyshev_examples = request_examples(settings.examples_dir, "transformers/chebyshev")
     taper_examples = request_examples(settings.examples_dir, "transformers/taper")
+    compare_examples = request_examples(settings.examples_dir, "transformers/compare")
 
     @router.post("/quarter-wave", response_model=TransformerDesign, summary="Quarter-wave transformer")
     def quarter_wave(
@@ -47,5 +49,10 @@ def build_router(settings: Settings) -> APIRouter:
     def taper(request: Annotated[TaperRequest, Body(openapi_examples=taper_examples)]) -> TransformerDesign:
         """Exponential, triangular or Klopfenstein taper, cut into equal steps and checked exactly."""
         return designer.tapered(request)
+
+    @router.post("/compare", response_model=Comparison, summary="Every method side by side")
+    def compare(request: Annotated[CompareRequest, Body(openapi_examples=compare_examples)]) -> Comparison:
+        """All applicable methods and theories for one request, ranked for meeting the spec shortest."""
+        return designer.compare(request)
 
     return router
