@@ -23,41 +23,60 @@ class Abcd:
     d: np.ndarray
 
 
-def electrical_length_rad(
-    length_m: np.ndarray, frequency_hz: np.ndarray, velocity_factor: float
-) -> np.ndarray:
+def electrical_length_rad(length_m: np.ndarray, frequency_hz: np.ndarray, velocity_factor: float) -> np.ndarray:
     """beta * l of each section at each frequency: shape (..., frequencies, sections)."""
-    wavenumber = (
-        2.0 * np.pi * np.asarray(frequency_hz)[..., None] / (velocity_factor * SPEED_OF_LIGHT_M_PER_S)
-    )
+    wavenumber = 2.0 * np.pi * np.asarray(frequency_hz)[..., None] / (velocity_factor * SPEED_OF_LIGHT_M_PER_S)
     return wavenumber * np.asarray(length_m)[..., None, :]
 
 
-def cascade(impedances_ohm: np.ndarray, electrical_lengths_rad: np.ndarray) -> Abcd:
-    """Product of lossless line ABCD matrices, source side first.
+def cascade(
+    impedances_ohm: np.ndarray, electrical_lengths_rad: np.ndarray, losses_np: np.ndarray | None = None
+) -> Abcd:
+    """Product of line ABCD matrices, source side first.
 
-    impedances_ohm has shape (..., sections); electrical_lengths_rad (..., frequencies, sections).
+    The last axis is the section; the others broadcast (e.g. impedances (sections,) or
+    (frequencies, sections) against lengths (frequencies, sections), with leading batch axes).
+    With `losses_np` (alpha * l of each section, nepers) the lines are lossy: cosh and sinh of
+    gamma l = alpha l + j beta l replace cos and j sin; the impedances stay real (low-loss lines).
     """
-    impedances = np.asarray(impedances_ohm, dtype=float)[..., None, :]
+    impedances = np.asarray(impedances_ohm, dtype=float)
     lengths = np.asarray(electrical_lengths_rad, dtype=float)
-    shape = np.broadcast_shapes(impedances.shape, lengths.shape)[:-1]
-    a = np.ones(shape, dtype=complex)
-    b = np.zeros(shape, dtype=complex)
-    c = np.zeros(shape, dtype=complex)
-    d = np.ones(shape, dtype=complex)
-    cosines = np.cos(lengths)
-    sines = np.sin(lengths)
-    for index in range(lengths.shape[-1]):
+    shape = np.broadcast_shapes(impedances.shape, lengths.shape)
+    impedances = np.broadcast_to(impedances, shape)
+    if losses_np is None:
+        cosines = np.cos(lengths)
+        sines = 1j * np.sin(lengths)
+    else:
+        gamma_l = np.asarray(losses_np) + 1j * lengths
+        cosines = np.cosh(gamma_l)
+        sines = np.sinh(gamma_l)
+    cosines = np.broadcast_to(cosines, shape)
+    sines = np.broadcast_to(sines, shape)
+    a = np.ones(shape[:-1], dtype=complex)
+    b = np.zeros(shape[:-1], dtype=complex)
+    c = np.zeros(shape[:-1], dtype=complex)
+    d = np.ones(shape[:-1], dtype=complex)
+    for index in range(shape[-1]):
         z = impedances[..., index]
         cos_t = cosines[..., index]
-        jsin = 1j * sines[..., index]
+        sin_t = sines[..., index]
         a, b, c, d = (
-            a * cos_t + b * jsin / z,
-            a * jsin * z + b * cos_t,
-            c * cos_t + d * jsin / z,
-            c * jsin * z + d * cos_t,
+            a * cos_t + b * sin_t / z,
+            a * sin_t * z + b * cos_t,
+            c * cos_t + d * sin_t / z,
+            c * sin_t * z + d * cos_t,
         )
     return Abcd(a, b, c, d)
+
+
+def transducer_gain(network: Abcd, source_ohm: float, load_ohm: np.ndarray) -> np.ndarray:
+    """Power delivered to the load over the power available from the source.
+
+    V_load / V_source = Z_L / (A Z_L + B + R_S (C Z_L + D)), so G = 4 R_S R_L / |A Z_L + B + R_S (C Z_L + D)|^2.
+    """
+    load = np.asarray(load_ohm)
+    denominator = network.a * load + network.b + source_ohm * (network.c * load + network.d)
+    return 4.0 * source_ohm * np.real(load) / np.abs(denominator) ** 2
 
 
 def input_impedance(network: Abcd, load_ohm: complex | np.ndarray) -> np.ndarray:

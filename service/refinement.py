@@ -1,9 +1,10 @@
 """Minimax refinement of a line's sections against a load that changes with frequency.
 
 The synthesized design matches the load at the centre frequency only. Here the section
-impedances and lengths are adjusted (SciPy SLSQP on the epigraph form: minimize t subject to
-|Gamma(f_k)|^2 <= t on a grid over the band) so that the worst in-band reflection is as small as
-the optimizer can make it. The exact cascade is both the objective and the final judge.
+geometries (impedances on the ideal line, strip widths, inner diameters) and lengths are
+adjusted (SciPy SLSQP on the epigraph form: minimize t subject to |Gamma(f_k)|^2 <= t on a grid
+over the band) so that the worst in-band reflection is as small as the optimizer can make it.
+The exact cascade is both the objective and the final judge.
 """
 
 from __future__ import annotations
@@ -17,7 +18,7 @@ from service.verification import LineCascade, worst_reflection
 
 GRID_POINTS = 81
 MAX_ITERATIONS = 150
-IMPEDANCE_FREEDOM = 4.0  # each impedance may move within a factor of this
+GEOMETRY_FREEDOM = 4.0  # each section's geometry (impedance, width, diameter) may move within this factor
 MAX_LENGTH_FACTOR = 2.0  # each length may shrink to zero or grow to this many times a quarter wave
 
 
@@ -31,14 +32,14 @@ class Refinement:
 
 
 def refine_minimax(line: LineCascade, start_hz: float, stop_hz: float, quarter_wave_m: float) -> Refinement:
-    """Adjust impedances and lengths for the smallest worst-case reflection over the band.
+    """Adjust section geometry (hence impedance) and lengths for the smallest worst-case reflection.
 
     The result is never worse than the start: if the optimizer does not improve the worst
     reflection on the dense check grid, the original line is kept.
     """
     grid = np.linspace(start_hz, stop_hz, GRID_POINTS)
-    count = line.impedances_ohm.size
-    log_start = np.log(line.impedances_ohm)
+    count = line.geometry.size
+    log_start = np.log(line.geometry)
 
     def unpack(x: np.ndarray) -> LineCascade:
         return line.with_sections(np.exp(x[:count]), x[count : 2 * count] * quarter_wave_m)
@@ -48,7 +49,7 @@ def refine_minimax(line: LineCascade, start_hz: float, stop_hz: float, quarter_w
 
     start = np.concatenate((log_start, line.lengths_m / quarter_wave_m, [0.0]))
     start[-1] = float(np.max(line.reflection(grid) ** 2))
-    spread = np.log(IMPEDANCE_FREEDOM)
+    spread = np.log(GEOMETRY_FREEDOM)
     bounds = [(z - spread, z + spread) for z in log_start]
     bounds += [(0.0, MAX_LENGTH_FACTOR)] * count + [(0.0, 1.0)]
     result = minimize(

@@ -6,6 +6,8 @@ import os
 from dataclasses import dataclass, field
 from pathlib import Path
 
+from service.designer.lines import DesignOptions
+
 PROJECT_ROOT = Path(__file__).resolve().parent.parent
 
 
@@ -19,6 +21,11 @@ class Settings:
 
     examples_dir: Path = PROJECT_ROOT / "openapi_examples"
     cors_allow_origins: list[str] = field(default_factory=list)
+    min_feature_m: float = 1e-4
+
+    def design_options(self) -> DesignOptions:
+        """The settings the designer needs."""
+        return DesignOptions(min_feature_m=self.min_feature_m)
 
     @classmethod
     def from_env(cls) -> Settings:
@@ -27,4 +34,5 @@ class Settings:
         return cls(
             examples_dir=Path(os.environ.get("STEPLINE_EXAMPLES_DIR", defaults.examples_dir)),
             cors_allow_origins=_origins(os.environ.get("STEPLINE_CORS_ALLOW_ORIGINS", "")),
+            min_feature_m=float(os.environ.get("STEPLINE_MIN_FEATURE_M", defaults.min_feature_m)),
         )

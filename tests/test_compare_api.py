@@ -27,9 +27,7 @@ def test_equal_ripple_beats_maximally_flat_for_the_same_spec(client, base_reques
     # For the same spec and band a Chebyshev transformer needs no more sections than a binomial
     # one (Pozar ch. 5: the equal-ripple response trades flatness for bandwidth).
     result = compare(client, base_request | {"load": {"resistance_ohm": 300.0}, "max_reflection": 0.02})
-    counts = {
-        (c["method"], c["theory"]): c["section_count"] for c in result["candidates"] if c["profile"] is None
-    }
+    counts = {(c["method"], c["theory"]): c["section_count"] for c in result["candidates"] if c["profile"] is None}
     assert counts[("chebyshev", "exact")] <= counts[("binomial", "exact")]
 
 

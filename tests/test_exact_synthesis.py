@@ -47,9 +47,7 @@ def test_exact_chebyshev_has_equal_ripple_and_edges_on_the_band(sections, ratio)
     edge = band_edge_angle_rad(1.0, 3.0 if ratio < 50 else 2.2)
     design = chebyshev(source, load, sections, edge, None, EXACT)
     rho = (load - source) / (load + source)
-    ripple = loss_to_reflection(
-        rho / math.sqrt(1 - rho**2) / math.cosh(sections * math.acosh(1 / math.cos(edge)))
-    )
+    ripple = loss_to_reflection(rho / math.sqrt(1 - rho**2) / math.cosh(sections * math.acosh(1 / math.cos(edge))))
     peaks, values = in_band_peaks(design.impedances_ohm, source, load, edge)
     assert len(peaks) == sections - 1
     assert np.max(np.abs(peaks / ripple - 1)) < 1e-6

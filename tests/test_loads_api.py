@@ -101,10 +101,7 @@ def test_touchstone_load_is_designed_and_refined(client, base_request):
         "binomial",
         body | {"load": {"circuit": {"kind": "series-rl", "resistance_ohm": 20, "inductance_h": 2e-9}}},
     )
-    assert (
-        from_file["refinement"]["after"]["max_reflection"]
-        < from_file["refinement"]["before"]["max_reflection"]
-    )
+    assert from_file["refinement"]["after"]["max_reflection"] < from_file["refinement"]["before"]["max_reflection"]
     # Linear interpolation of the table against the exact circuit: close but not identical.
     assert from_file["refinement"]["before"]["max_reflection"] == pytest.approx(
         from_circuit["refinement"]["before"]["max_reflection"], rel=1e-3
@@ -172,9 +169,7 @@ def test_bode_fano_formula_for_a_parallel_rc_load():
     # reflection over delta omega cannot be below exp(-pi / (R C delta omega)).
     # R = 100 ohm, C = 5 pF, 1.8-2.2 GHz: R C delta omega = 100 * 5e-12 * 2 pi * 0.4e9 = 0.4 pi,
     # so the bound is exp(-2.5) = 0.0821.
-    assert bode_fano_min_reflection("parallel-rc", 100.0, 5e-12, 1.8e9, 2.2e9) == pytest.approx(
-        math.exp(-2.5)
-    )
+    assert bode_fano_min_reflection("parallel-rc", 100.0, 5e-12, 1.8e9, 2.2e9) == pytest.approx(math.exp(-2.5))
     # Series R-L: pi R / L; R = 10 ohm, L = 5 nH over 0.4 GHz -> exp(-pi 10 / (5e-9 * 0.8 pi e9)) = exp(-2.5).
     assert bode_fano_min_reflection("series-rl", 10.0, 5e-9, 1.8e9, 2.2e9) == pytest.approx(math.exp(-2.5))
 

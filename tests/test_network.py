@@ -64,9 +64,7 @@ def test_cascade_matches_high_precision_arithmetic(seed):
 def test_lossless_cascade_conserves_power(seed):
     # Lossless two-port with real references: |S11|^2 + |S21|^2 = 1 (standard textbook result).
     impedances, lengths = random_lines(seed, count=12)
-    abcd = network.cascade(
-        impedances, network.electrical_length_rad(lengths, np.linspace(1e8, 6e9, 301), 1.0)
-    )
+    abcd = network.cascade(impedances, network.electrical_length_rad(lengths, np.linspace(1e8, 6e9, 301), 1.0))
     s11, s21 = network.s_parameters(abcd, 50.0, 75.0)
     assert np.abs(s11) ** 2 + np.abs(s21) ** 2 == pytest.approx(np.ones(301), abs=1e-12)
 
@@ -74,9 +72,7 @@ def test_lossless_cascade_conserves_power(seed):
 def test_quarter_wave_line_inverts_the_load():
     # Textbook result (Pozar ch. 2): a quarter-wave line gives Zin = Z1^2 / ZL.
     length = C0 / (4.0 * 1e9)
-    abcd = network.cascade(
-        np.array([80.0]), network.electrical_length_rad(np.array([length]), np.array([1e9]), 1.0)
-    )
+    abcd = network.cascade(np.array([80.0]), network.electrical_length_rad(np.array([length]), np.array([1e9]), 1.0))
     assert network.input_impedance(abcd, 40.0)[0] == pytest.approx(80.0**2 / 40.0, rel=1e-12)
 
 

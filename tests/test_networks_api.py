@@ -15,9 +15,7 @@ def test_analysis_equals_the_synthesized_design(client, base_request):
     result = analyze(client, base_request | {"sections": sections})
     assert result.status_code == 200
     body = result.json()
-    assert body["verified"]["max_reflection"] == pytest.approx(
-        design["verified"]["max_reflection"], rel=1e-12
-    )
+    assert body["verified"]["max_reflection"] == pytest.approx(design["verified"]["max_reflection"], rel=1e-12)
     assert body["response"] == design["response"]
 
 
@@ -33,9 +31,7 @@ def test_rounded_quarter_wave_figures(client, base_request):
     # A 70 ohm quarter-wave (rounded from 70.7) between 50 and 100 ohm: at the centre
     # Zin = 70^2 / 100 = 49 ohm, so |Gamma| >= |49 - 50| / 99 (textbook quarter-wave inversion).
     narrow = base_request | {"band": {"start_hz": 1.99e9, "stop_hz": 2.01e9}, "points": 3}
-    body = analyze(
-        client, narrow | {"sections": [{"impedance_ohm": 70.0, "electrical_length_deg": 90.0}]}
-    ).json()
+    body = analyze(client, narrow | {"sections": [{"impedance_ohm": 70.0, "electrical_length_deg": 90.0}]}).json()
     assert body["response"]["reflection_magnitude"][1] == pytest.approx(1 / 99, rel=1e-12)
     assert body["verified"]["max_reflection"] >= 1 / 99
     assert math.isclose(body["center_hz"], 2e9)

@@ -50,9 +50,7 @@ def test_chebyshev_weights_rebuild_the_chebyshev_polynomial(sections, scale):
 def test_chebyshev_peak_matches_a_dense_scan(sections, argument):
     # Largest |T_N(y)| over |y| <= argument, checked against a dense SciPy evaluation.
     y = np.linspace(-argument, argument, 200001)
-    assert chebyshev_peak(sections, argument) == pytest.approx(
-        np.max(np.abs(eval_chebyt(sections, y))), rel=1e-6
-    )
+    assert chebyshev_peak(sections, argument) == pytest.approx(np.max(np.abs(eval_chebyt(sections, y))), rel=1e-6)
 
 
 @pytest.mark.parametrize("sections", [2, 3, 5, 8, 16, 32])

@@ -78,9 +78,7 @@ def test_given_length_reports_the_achieved_reflection(client, base_request):
     result = post_taper(client, base_request, profile="klopfenstein", length_m=length, max_reflection=0.05)
     beta_l = 2 * math.pi * 1e9 / network.SPEED_OF_LIGHT_M_PER_S * length
     assert result["total_length_m"] == pytest.approx(length)
-    assert result["predicted"]["max_reflection"] == pytest.approx(
-        0.5 * math.log(2) / math.cosh(beta_l), rel=1e-9
-    )
+    assert result["predicted"]["max_reflection"] == pytest.approx(0.5 * math.log(2) / math.cosh(beta_l), rel=1e-9)
     short = post_taper(client, base_request, profile="exponential", length_m=0.02)
     assert short["predicted"]["covers_band"] is False and not short["verified"]["meets_spec"]
 

@@ -88,9 +88,7 @@ def test_chebyshev_by_sections_puts_the_ripple_edges_on_the_band(client, base_re
     curve = result["response"]["reflection_magnitude"]
     assert curve[0] == pytest.approx(curve[-1], rel=1e-9)
     # The exact peak departs from the theory by a few percent at a 2:1 ratio (and says so).
-    assert result["verified"]["max_reflection"] == pytest.approx(
-        result["predicted"]["max_reflection"], rel=0.1
-    )
+    assert result["verified"]["max_reflection"] == pytest.approx(result["predicted"]["max_reflection"], rel=0.1)
 
 
 def test_chebyshev_with_sections_and_spec_reports_coverage(client, base_request):

@@ -14,12 +14,13 @@ from service.settings import Settings
 
 def build_router(settings: Settings) -> APIRouter:
     """The /v1/networks routes."""
+    options = settings.design_options()
     router = APIRouter(prefix="/v1/networks", tags=["networks"], responses=error_responses())
     examples = request_examples(settings.examples_dir, "networks/analyze")
 
     @router.post("/analyze", response_model=AnalysisResult, summary="Check your own sections")
     def analyze(request: Annotated[AnalyzeRequest, Body(openapi_examples=examples)]) -> AnalysisResult:
         """Verify a list of sections (e.g. a design rounded to buildable impedances) by the exact cascade."""
-        return designer.analyze(request)
+        return designer.analyze(request, options)
 
     return router

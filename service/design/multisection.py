@@ -26,9 +26,7 @@ class InfeasibleDesignError(ValueError):
     """The requested specification cannot be met within the allowed number of sections."""
 
 
-def quarter_wave(
-    source_ohm: float, load_ohm: float, edge_angle_rad: float, spec_reflection: float
-) -> SteppedDesign:
+def quarter_wave(source_ohm: float, load_ohm: float, edge_angle_rad: float, spec_reflection: float) -> SteppedDesign:
     """Single quarter-wave section Z1 = sqrt(Z0 ZL); its response formula is exact for one section."""
     impedance = math.sqrt(source_ohm * load_ohm)
     mismatch = abs(load_ohm - source_ohm)
@@ -38,10 +36,7 @@ def quarter_wave(
         fraction = FULL_BAND_FRACTION
     else:
         cos_edge = (
-            2.0
-            * spec_reflection
-            * math.sqrt(source_ohm * load_ohm)
-            / (math.sqrt(1.0 - spec_reflection**2) * mismatch)
+            2.0 * spec_reflection * math.sqrt(source_ohm * load_ohm) / (math.sqrt(1.0 - spec_reflection**2) * mismatch)
         )
         fraction = fraction_from_edge_angle(math.acos(cos_edge))
     return SteppedDesign.quarter_waves(np.array([impedance]), predicted, fraction)

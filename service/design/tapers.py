@@ -135,9 +135,7 @@ def taper(
     band = np.linspace(edge_length_rad, edge_length_rad * (2.0 / start_over_center - 1.0), PREDICTION_POINTS)
     predicted = float(np.max(taper_reflection(profile, band, ln_ratio, a)))
     lowest_within = (
-        length_for_spec(profile, ln_ratio, spec_reflection)[0]
-        if 0.5 * abs(ln_ratio) > spec_reflection
-        else 0.0
+        length_for_spec(profile, ln_ratio, spec_reflection)[0] if 0.5 * abs(ln_ratio) > spec_reflection else 0.0
     )
     fraction = max(0.0, 2.0 * (1.0 - lowest_within / total_at_center))
     return SteppedDesign(impedances, angles, predicted, fraction)

@@ -4,33 +4,31 @@ from __future__ import annotations
 
 import numpy as np
 
-from service.designer.lines import checked_blocks
+from service.designer.lines import DesignOptions, checked_blocks, realize
 from service.designer.reporting import bode_fano_warnings, spec_warnings
-from service.schemas.networks import AnalyzeRequest, SectionSpec
+from service.schemas.networks import AnalyzeRequest
 from service.schemas.results import AnalysisResult
-from service.verification import LineCascade, length_for_angle_m, verified_figures
+from service.verification import verified_figures
 
 
-def analyze(request: AnalyzeRequest) -> AnalysisResult:
-    """Exact figures of the user's sections."""
+def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> AnalysisResult:
+    """Exact figures of the user's sections, realized in the request's medium.
+
+    A section given by electrical length gets the physical length that has it at its reference
+    frequency (the band centre by default); one given by length keeps it.
+    """
+    options = options or DesignOptions()
     center = request.band.center_hz
-    lengths = np.array([_section_length_m(s, center, request.velocity_factor) for s in request.sections])
-    line = LineCascade(
-        request.source_ohm,
-        request.load.model(),
-        np.array([s.impedance_ohm for s in request.sections]),
-        lengths,
-        request.velocity_factor,
-    )
+    impedances = np.array([s.impedance_ohm for s in request.sections])
+    angles = np.array([np.deg2rad(s.electrical_length_deg or 0.0) for s in request.sections])
+    references = np.array([s.reference_hz or center for s in request.sections])
+    line = realize(request, request.load.model(), impedances, angles, references)
+    given = np.array([s.length_m is not None for s in request.sections])
+    if np.any(given):
+        physical = np.array([s.length_m or 0.0 for s in request.sections])
+        line = line.with_sections(line.geometry, np.where(given, physical, line.lengths_m))
     verified = verified_figures(line, request.band.start_hz, request.band.stop_hz, request.spec_reflection)
-    blocks = checked_blocks(line, request, verified)
-    warnings = spec_warnings(verified) + bode_fano_warnings(blocks["bode_fano"], request.spec_reflection)
+    blocks = checked_blocks(line, request, verified, options)
+    warnings = [*blocks.pop("medium_notes"), *spec_warnings(verified)]
+    warnings += bode_fano_warnings(blocks["bode_fano"], request.spec_reflection)
     return AnalysisResult(**blocks, warnings=warnings)
-
-
-def _section_length_m(section: SectionSpec, center_hz: float, velocity_factor: float) -> float:
-    """Physical length of a user's section, from its length or its electrical length."""
-    if section.length_m is not None:
-        return section.length_m
-    reference = section.reference_hz or center_hz
-    return float(length_for_angle_m(np.deg2rad(section.electrical_length_deg), reference, velocity_factor))

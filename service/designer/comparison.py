@@ -5,6 +5,7 @@ from __future__ import annotations
 from collections.abc import Callable
 from typing import Any
 
+from service.designer.lines import DesignOptions
 from service.designer.stepped import binomial, chebyshev, quarter_wave
 from service.designer.tapered import tapered
 from service.errors import UnmeetableRequestError
@@ -19,11 +20,11 @@ TAPER_PROFILES = ("klopfenstein", "exponential", "triangular")
 Run = tuple[str, str, str | None, Callable[[], TransformerDesign]]
 
 
-def compare(request: CompareRequest) -> Comparison:
+def compare(request: CompareRequest, options: DesignOptions | None = None) -> Comparison:
     """Design with each method, then rank: meets the spec, shortest total length, lowest reflection."""
     designs: list[TransformerDesign] = []
     excluded: list[Excluded] = []
-    for method, theory, profile, run in _runs(request):
+    for method, theory, profile, run in _runs(request, options):
         try:
             designs.append(run())
         except UnmeetableRequestError as exc:
@@ -46,20 +47,22 @@ def compare(request: CompareRequest) -> Comparison:
     return Comparison(spec_max_reflection=request.spec_reflection, candidates=candidates, excluded=excluded)
 
 
-def _runs(request: CompareRequest) -> list[Run]:
+def _runs(request: CompareRequest, options: DesignOptions | None) -> list[Run]:
     """The designs that apply to this request, each as a deferred call."""
-    common: dict[str, Any] = request.model_dump(exclude={"sections", "include_tapers", "taper_segments"})
+    common: dict[str, Any] = request.model_dump(
+        exclude_unset=True, exclude={"sections", "include_tapers", "taper_segments"}
+    )
     runs: list[Run] = []
     if request.sections in (None, 1):
         runs.append(
-            ("quarter-wave", "small-reflection", None, lambda: quarter_wave(QuarterWaveRequest(**common)))
+            ("quarter-wave", "small-reflection", None, lambda: quarter_wave(QuarterWaveRequest(**common), options))
         )
     for method, function in (("binomial", binomial), ("chebyshev", chebyshev)):
         for theory in THEORY_NAMES:
             stepped = TransformerRequest(**common, sections=request.sections, theory=theory)
-            runs.append((method, theory, None, lambda f=function, r=stepped: f(r)))
+            runs.append((method, theory, None, lambda f=function, r=stepped: f(r, options)))
     if request.include_tapers:
         for profile in TAPER_PROFILES:
             taper = TaperRequest(**common, profile=profile, segments=request.taper_segments)
-            runs.append(("taper", "small-reflection", profile, lambda r=taper: tapered(r)))
+            runs.append(("taper", "small-reflection", profile, lambda r=taper: tapered(r, options)))
     return runs

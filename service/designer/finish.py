@@ -3,8 +3,7 @@
 from __future__ import annotations
 
 from service import design
-from service.design.stepped import QUARTER_WAVE_RAD
-from service.designer.lines import Target, checked_blocks, line_for
+from service.designer.lines import DesignOptions, Target, checked_blocks, line_for, quarter_wave_m
 from service.designer.reporting import (
     bode_fano_warnings,
     coverage_warnings,
@@ -14,7 +13,7 @@ from service.designer.reporting import (
 from service.refinement import refine_minimax
 from service.schemas.results import PredictedFigures, RefinementFigures, TransformerDesign
 from service.schemas.transformers import MatchRequest
-from service.verification import length_for_angle_m, verified_figures
+from service.verification import verified_figures
 
 THEORY_METHODS = ("binomial", "chebyshev")  # the methods a request may switch to the exact theory
 
@@ -26,6 +25,7 @@ def finish(
     target: Target,
     synthesized: design.SteppedDesign,
     notes: list[str] | None = None,
+    options: DesignOptions | None = None,
 ) -> TransformerDesign:
     """The verified response for a synthesized design (refined first for frequency-dependent loads)."""
     band, spec = request.band, request.spec_reflection
@@ -33,8 +33,7 @@ def finish(
     verified = verified_figures(line, band.start_hz, band.stop_hz, spec)
     refinement = None
     if target.load.frequency_dependent:
-        quarter = float(length_for_angle_m(QUARTER_WAVE_RAD, band.center_hz, request.velocity_factor))
-        refined = refine_minimax(line, band.start_hz, band.stop_hz, quarter)
+        refined = refine_minimax(line, band.start_hz, band.stop_hz, quarter_wave_m(line, band.center_hz))
         line = refined.after
         after = verified_figures(line, band.start_hz, band.stop_hz, spec)
         refinement = RefinementFigures(before=verified, after=after, iterations=refined.iterations)
@@ -45,9 +44,10 @@ def finish(
         covers_band=synthesized.predicted_max_reflection <= spec * (1.0 + 1e-9),
         departure_fraction=_departure(verified.max_reflection, synthesized.predicted_max_reflection),
     )
-    blocks = checked_blocks(line, request, verified)
+    blocks = checked_blocks(line, request, verified, options or DesignOptions())
     requested_fraction = (band.stop_hz - band.start_hz) / band.center_hz
-    warnings = [*synthesized.notes, *(notes or []), *coverage_warnings(spec, requested_fraction, predicted)]
+    warnings = [*synthesized.notes, *(notes or []), *blocks.pop("medium_notes")]
+    warnings += coverage_warnings(spec, requested_fraction, predicted)
     suggest_exact = theory == design.SMALL_REFLECTION.name and method in THEORY_METHODS
     warnings += spec_warnings(verified, suggest_exact)
     if target.rotation is None and not target.load.frequency_dependent:

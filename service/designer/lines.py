@@ -11,17 +11,21 @@ from service.design.bode_fano import bode_fano_min_reflection
 from service.design.reactive import RotatingSection, rotating_section
 from service.errors import UnmeetableRequestError
 from service.loads import CircuitLoad, LoadModel
+from service.media import IdealLine, RealizationError
+from service.network import SPEED_OF_LIGHT_M_PER_S
 from service.schemas.results import BodeFanoFigures, SectionResult, VerifiedFigures
 from service.schemas.transformers import MatchRequest
-from service.verification import (
-    LineCascade,
-    electrical_length_deg,
-    junction_results,
-    length_for_angle_m,
-    response_curve,
-)
+from service.verification import LineCascade, electrical_length_rad, junction_results, response_curve
 
 REAL_TOLERANCE = 1e-12  # |X| / |Z| below which a load counts as resistive
+DEFAULT_MIN_FEATURE_M = 1e-4
+
+
+@dataclass(frozen=True)
+class DesignOptions:
+    """Operator settings that shape warnings, passed down from the app's settings."""
+
+    min_feature_m: float = DEFAULT_MIN_FEATURE_M
 
 
 @dataclass(frozen=True)
@@ -53,20 +57,44 @@ def target_for(request: MatchRequest) -> Target:
     return Target(load, rotation.resistance_ohm, rotation, edge)
 
 
-def line_for(
-    request: MatchRequest, target: Target, impedances_ohm: np.ndarray, angles_rad: np.ndarray
-) -> LineCascade:
+def line_for(request: MatchRequest, target: Target, impedances_ohm: np.ndarray, angles_rad: np.ndarray) -> LineCascade:
     """The synthesized sections, followed by the rotating section where the load needs one."""
     if target.rotation is not None:
         impedances_ohm = np.append(impedances_ohm, request.source_ohm)
         angles_rad = np.append(angles_rad, target.rotation.electrical_length_rad)
-    lengths = length_for_angle_m(angles_rad, request.band.center_hz, request.velocity_factor)
-    return LineCascade(request.source_ohm, target.load, impedances_ohm, lengths, request.velocity_factor)
+    return realize(request, target.load, impedances_ohm, angles_rad, request.band.center_hz)
 
 
-def bode_fano_figures(
-    load: LoadModel, request: MatchRequest, verified: VerifiedFigures
-) -> BodeFanoFigures | None:
+def realize(
+    request: MatchRequest,
+    load: LoadModel,
+    impedances_ohm: np.ndarray,
+    angles_rad: np.ndarray,
+    frequency_hz: float | np.ndarray,
+) -> LineCascade:
+    """Sections of these impedances and electrical lengths (each at its frequency) in the request's medium.
+
+    The geometry is found for the impedance at the band centre; each length makes the section's
+    electrical length right at its frequency, with the medium's effective permittivity there.
+    """
+    medium = request.medium_model()
+    try:
+        geometry = medium.geometry_for(impedances_ohm, request.band.center_hz)
+    except RealizationError as exc:
+        raise UnmeetableRequestError("medium", str(exc)) from exc
+    frequencies = np.broadcast_to(np.asarray(frequency_hz, dtype=float), np.shape(geometry))
+    eps = np.array([medium.parameters(g, np.array([f])).eps_eff[0] for g, f in zip(geometry, frequencies, strict=True)])
+    lengths = np.asarray(angles_rad) * SPEED_OF_LIGHT_M_PER_S / (2.0 * np.pi * frequencies * np.sqrt(eps))
+    return LineCascade(request.source_ohm, load, medium, geometry, lengths)
+
+
+def quarter_wave_m(line: LineCascade, frequency_hz: float) -> float:
+    """A representative quarter wavelength on the line (at the mean permittivity of its sections)."""
+    eps = float(np.mean(line.eps_eff_at(frequency_hz)))
+    return SPEED_OF_LIGHT_M_PER_S / (4.0 * frequency_hz * np.sqrt(eps))
+
+
+def bode_fano_figures(load: LoadModel, request: MatchRequest, verified: VerifiedFigures) -> BodeFanoFigures | None:
     """The Bode-Fano block for lumped loads, None for others."""
     if not isinstance(load, CircuitLoad):
         return None
@@ -80,21 +108,39 @@ def bode_fano_figures(
     )
 
 
-def checked_blocks(line: LineCascade, request: MatchRequest, verified: VerifiedFigures) -> dict[str, object]:
-    """The response blocks every verified result shares."""
-    center = request.band.center_hz
-    degrees = electrical_length_deg(line.lengths_m, center, line.velocity_factor)
-    sections = [
-        SectionResult(impedance_ohm=float(z), electrical_length_deg=float(d), length_m=float(m))
-        for z, d, m in zip(line.impedances_ohm, degrees, line.lengths_m, strict=True)
+def section_results(line: LineCascade, frequency_hz: float) -> list[SectionResult]:
+    """Each section's impedance, electrical length, permittivity and geometry at one frequency."""
+    degrees = np.degrees(electrical_length_rad(line, frequency_hz))
+    impedances = line.impedances_at(frequency_hz)
+    eps = line.eps_eff_at(frequency_hz)
+    name = line.medium.geometry_name
+    return [
+        SectionResult(
+            impedance_ohm=float(z),
+            electrical_length_deg=float(d),
+            length_m=float(m),
+            eps_eff=float(e),
+            **({name: float(g)} if name else {}),
+        )
+        for z, d, m, e, g in zip(impedances, degrees, line.lengths_m, eps, line.geometry, strict=True)
     ]
+
+
+def checked_blocks(
+    line: LineCascade, request: MatchRequest, verified: VerifiedFigures, options: DesignOptions
+) -> dict[str, object]:
+    """The response blocks every verified result shares, and the medium's own notes."""
+    band = request.band
+    medium = line.medium
     return {
-        "center_hz": center,
-        "sections": sections,
+        "center_hz": band.center_hz,
+        "sections": section_results(line, band.center_hz),
         "total_length_m": float(np.sum(line.lengths_m)),
-        "junctions": junction_results(line),
+        "junctions": junction_results(line, band.center_hz),
         "verified": verified,
-        "response": response_curve(line, request.band.start_hz, request.band.stop_hz, request.points),
-        "velocity_factor": line.velocity_factor,
+        "response": response_curve(line, band.start_hz, band.stop_hz, request.points),
+        "velocity_factor": medium.velocity_factor if isinstance(medium, IdealLine) else None,
+        "medium": medium.kind,
         "bode_fano": bode_fano_figures(line.load, request, verified),
+        "medium_notes": medium.notes(line.geometry, band.start_hz, band.stop_hz, options.min_feature_m),
     }

@@ -7,7 +7,7 @@ import math
 from service.design.multisection import InfeasibleDesignError
 from service.design.tapers import taper
 from service.designer.finish import finish
-from service.designer.lines import Target, target_for
+from service.designer.lines import DesignOptions, Target, target_for
 from service.errors import UnmeetableRequestError
 from service.network import SPEED_OF_LIGHT_M_PER_S
 from service.schemas.results import TransformerDesign
@@ -16,7 +16,7 @@ from service.schemas.tapers import TaperRequest
 MAX_STRETCHES = 12  # times the spec-driven length may be corrected by the exact cascade
 
 
-def tapered(request: TaperRequest) -> TransformerDesign:
+def tapered(request: TaperRequest, options: DesignOptions | None = None) -> TransformerDesign:
     """A discretized exponential, triangular or Klopfenstein taper.
 
     Spec-driven tapers start at the theory's shortest length; where the exact cascade misses
@@ -25,13 +25,11 @@ def tapered(request: TaperRequest) -> TransformerDesign:
     """
     target = target_for(request)
     if request.length_m is not None:
-        beta_start = (
-            2.0 * math.pi * request.band.start_hz / (request.velocity_factor * SPEED_OF_LIGHT_M_PER_S)
-        )
-        return _taper(request, target, beta_start * request.length_m, None, [])
+        beta_start = 2.0 * math.pi * request.band.start_hz / (request.velocity_factor * SPEED_OF_LIGHT_M_PER_S)
+        return _taper(request, target, beta_start * request.length_m, None, [], options)
     spec = request.spec_reflection
     design_reflection = spec
-    result = _taper(request, target, None, design_reflection, [])
+    result = _taper(request, target, None, design_reflection, [], options)
     for _ in range(MAX_STRETCHES):
         if result.verified.meets_spec:
             break
@@ -40,7 +38,7 @@ def tapered(request: TaperRequest) -> TransformerDesign:
             f"The theory's shortest taper missed the spec on the exact cascade; this one is designed "
             f"for a theoretical {design_reflection:.4g} to meet {spec:.4g}."
         )
-        result = _taper(request, target, None, design_reflection, [note])
+        result = _taper(request, target, None, design_reflection, [note], options)
     return result
 
 
@@ -50,6 +48,7 @@ def _taper(
     edge_length_rad: float | None,
     design_reflection: float | None,
     notes: list[str],
+    options: DesignOptions | None,
 ) -> TransformerDesign:
     band = request.band
     try:
@@ -65,5 +64,5 @@ def _taper(
         )
     except InfeasibleDesignError as exc:
         raise UnmeetableRequestError("max_reflection", str(exc)) from exc
-    result = finish("taper", "small-reflection", request, target, synthesized, notes)
+    result = finish("taper", "small-reflection", request, target, synthesized, notes, options)
     return result.model_copy(update={"profile": request.profile})

@@ -18,9 +18,7 @@ class CompareRequest(MatchRequest):
     spec-driven, cut into `taper_segments` steps.
     """
 
-    sections: int | None = Field(
-        None, ge=1, le=MAX_SECTIONS, description="Section count for stepped designs."
-    )
+    sections: int | None = Field(None, ge=1, le=MAX_SECTIONS, description="Section count for stepped designs.")
     include_tapers: bool = Field(True, description="Whether to include the three taper profiles.")
     taper_segments: int = Field(DEFAULT_SEGMENTS, ge=2, le=MAX_SEGMENTS)
 

@@ -13,9 +13,7 @@ from service.loads import CircuitLoad, FixedLoad, LoadModel, TabulatedLoad
 from service.schemas.common import MAX_IMPEDANCE_OHM, MAX_POINTS, FrequencyHz, ImpedanceOhm, StrictModel
 
 MAX_TOUCHSTONE_CHARS = 2_000_000
-Reactance = Annotated[
-    float, Field(ge=-MAX_IMPEDANCE_OHM, le=MAX_IMPEDANCE_OHM, description="Reactance in ohm.")
-]
+Reactance = Annotated[float, Field(ge=-MAX_IMPEDANCE_OHM, le=MAX_IMPEDANCE_OHM, description="Reactance in ohm.")]
 ElementValue = Annotated[float, Field(gt=0.0, le=1.0)]
 
 
@@ -91,9 +89,7 @@ class Load(StrictModel):
     @model_validator(mode="after")
     def _one_form(self) -> Load:
         given = [
-            name
-            for name in ("resistance_ohm", "circuit", "measured", "touchstone")
-            if getattr(self, name) is not None
+            name for name in ("resistance_ohm", "circuit", "measured", "touchstone") if getattr(self, name) is not None
         ]
         if len(given) != 1:
             raise ValueError("give exactly one of resistance_ohm, circuit, measured or touchstone")

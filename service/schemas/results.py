@@ -8,9 +8,12 @@ from pydantic import BaseModel, Field
 class SectionResult(BaseModel):
     """One line section, listed from the source side to the load side."""
 
-    impedance_ohm: float = Field(description="Characteristic impedance of the section.")
+    impedance_ohm: float = Field(description="Characteristic impedance of the section at the band centre.")
     electrical_length_deg: float = Field(description="Electrical length at the band centre.")
-    length_m: float = Field(description="Physical length on a line of the stated velocity factor.")
+    length_m: float = Field(description="Physical length in the medium.")
+    eps_eff: float = Field(description="Effective permittivity at the band centre (1/v^2 on the ideal line).")
+    width_m: float | None = Field(None, description="Strip width, for microstrip and stripline.")
+    inner_diameter_m: float | None = Field(None, description="Inner conductor diameter, for coax.")
 
 
 class JunctionResult(BaseModel):
@@ -34,8 +37,7 @@ class PredictedFigures(BaseModel):
     covers_band: bool = Field(description="Whether the theory keeps the spec over the whole band.")
     departure_fraction: float = Field(
         description=(
-            "How far the exact cascade's worst reflection departs from this prediction: "
-            "verified / predicted - 1."
+            "How far the exact cascade's worst reflection departs from this prediction: verified / predicted - 1."
         )
     )
 
@@ -49,6 +51,11 @@ class VerifiedFigures(BaseModel):
     worst_frequency_hz: float = Field(description="Where the largest reflection occurs.")
     spec_max_reflection: float = Field(description="The spec the design is judged against.")
     meets_spec: bool
+    includes_dispersion: bool = Field(description="Whether the cascade used frequency-dependent line parameters.")
+    includes_losses: bool = Field(description="Whether the cascade included conductor and dielectric losses.")
+    max_insertion_loss_db: float | None = Field(
+        None, description="Largest in-band insertion loss (transducer loss, mismatch included), with losses."
+    )
 
 
 class ResponseCurve(BaseModel):
@@ -57,6 +64,9 @@ class ResponseCurve(BaseModel):
     frequency_hz: list[float]
     reflection_magnitude: list[float]
     return_loss_db: list[float] = Field(description="Capped at 300 dB where the reflection is zero.")
+    insertion_loss_db: list[float] | None = Field(
+        None, description="Transducer loss from source to load at each frequency, given when losses are modelled."
+    )
 
 
 class BodeFanoFigures(BaseModel):
@@ -86,7 +96,8 @@ class AnalysisResult(BaseModel):
     junctions: list[JunctionResult]
     verified: VerifiedFigures
     response: ResponseCurve
-    velocity_factor: float
+    velocity_factor: float | None = Field(description="Of the ideal line; null for physical media.")
+    medium: str = Field(description="The kind of line: ideal, microstrip, stripline or coax.")
     bode_fano: BodeFanoFigures | None = Field(None, description="Given for lumped R-C and R-L loads.")
     warnings: list[str] = Field(description="Plain sentences about anything worth a second look.")
 

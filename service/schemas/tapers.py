@@ -22,6 +22,4 @@ class TaperRequest(MatchRequest):
 
     profile: Literal["exponential", "triangular", "klopfenstein"] = "klopfenstein"
     length_m: float | None = Field(None, gt=0.0, le=1e4, description="Physical length of the taper.")
-    segments: int = Field(
-        DEFAULT_SEGMENTS, ge=2, le=MAX_SEGMENTS, description="Equal steps the taper is cut into."
-    )
+    segments: int = Field(DEFAULT_SEGMENTS, ge=2, le=MAX_SEGMENTS, description="Equal steps the taper is cut into.")

@@ -4,9 +4,10 @@ from __future__ import annotations
 
 from typing import Literal
 
-from pydantic import Field
+from pydantic import Field, model_validator
 
 from service.design.multisection import MAX_SECTIONS
+from service.media import IdealLine, Medium
 from service.schemas.common import (
     DEFAULT_POINTS,
     Band,
@@ -17,6 +18,7 @@ from service.schemas.common import (
     VelocityFactor,
 )
 from service.schemas.loads import Load
+from service.schemas.media import MediumSpec
 
 DEFAULT_SPEC_REFLECTION = 0.1  # 20 dB return loss, used when a request states no spec
 
@@ -35,12 +37,27 @@ class MatchRequest(StrictModel):
     band: Band
     max_reflection: MaxReflection | None = None
     points: Points = DEFAULT_POINTS
-    velocity_factor: VelocityFactor = 1.0
+    velocity_factor: VelocityFactor = Field(
+        1.0, description="Velocity factor of the ideal line, when no `medium` is given."
+    )
+    medium: MediumSpec | None = Field(
+        None, description="The line the sections are built in; the ideal line of `velocity_factor` by default."
+    )
+
+    @model_validator(mode="after")
+    def _one_velocity(self) -> MatchRequest:
+        if self.medium is not None and "velocity_factor" in self.model_fields_set:
+            raise ValueError("give velocity_factor at the top level or a medium, not both")
+        return self
 
     @property
     def spec_reflection(self) -> float:
         """The reflection the design is judged against: the request's, or the default."""
         return DEFAULT_SPEC_REFLECTION if self.max_reflection is None else self.max_reflection
+
+    def medium_model(self) -> Medium:
+        """The medium the sections are realized in."""
+        return IdealLine(self.velocity_factor) if self.medium is None else self.medium.model()
 
 
 class TransformerRequest(MatchRequest):

@@ -1,0 +1,86 @@
+"""Coaxial line: Z = (eta0 / (2 pi sqrt(eps_r))) ln(D / d), the geometry is the inner diameter d."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from service.media.base import LineParameters, RealizationError
+from service.media.conductors import (
+    ETA_0,
+    roughness_factor,
+    surface_resistance_ohm,
+    tem_dielectric_attenuation,
+)
+
+C0 = 299_792_458.0
+
+
+@dataclass(frozen=True)
+class CoaxLine:
+    """A coaxial line of fixed outer diameter D."""
+
+    eps_r: float
+    outer_diameter_m: float
+    loss_tangent: float = 0.0
+    conductivity_s_per_m: float | None = None
+    roughness_m: float = 0.0
+    kind: str = "coax"
+    geometry_name: str | None = "inner_diameter_m"
+    dispersive: bool = False
+
+    @property
+    def lossy(self) -> bool:
+        return self.loss_tangent > 0.0 or self.conductivity_s_per_m is not None
+
+    def impedance(self, inner_diameter_m: np.ndarray) -> np.ndarray:
+        """Z of each inner diameter."""
+        return (
+            ETA_0
+            / (2.0 * math.pi * math.sqrt(self.eps_r))
+            * np.log(self.outer_diameter_m / np.asarray(inner_diameter_m))
+        )
+
+    def parameters(self, geometry: np.ndarray, frequency_hz: np.ndarray) -> LineParameters:
+        z = self.impedance(geometry)
+        shape = np.broadcast_shapes(np.shape(z), np.shape(frequency_hz))
+        impedance = np.broadcast_to(z, shape)
+        attenuation = None
+        if self.lossy:
+            f = np.broadcast_to(np.asarray(frequency_hz, dtype=float), shape)
+            attenuation = tem_dielectric_attenuation(f, self.eps_r, self.loss_tangent)
+            if self.conductivity_s_per_m is not None:
+                # Pozar, Microwave Engineering, ch. 2: alpha_c = Rs (1/a + 1/b) / (2 eta ln(b/a)), radii a, b.
+                rs = surface_resistance_ohm(f, self.conductivity_s_per_m)
+                rough = roughness_factor(f, self.conductivity_s_per_m, self.roughness_m)
+                d = np.asarray(geometry)
+                eta = ETA_0 / math.sqrt(self.eps_r)
+                radii_term = 2.0 / d + 2.0 / self.outer_diameter_m
+                attenuation = attenuation + rs * rough * radii_term / (2.0 * eta * np.log(self.outer_diameter_m / d))
+        return LineParameters(impedance, np.full(shape, self.eps_r), attenuation)
+
+    def geometry_for(self, impedance_ohm: np.ndarray, frequency_hz: float) -> np.ndarray:
+        z = np.atleast_1d(np.asarray(impedance_ohm, dtype=float))
+        ratio = np.exp(z * 2.0 * math.pi * math.sqrt(self.eps_r) / ETA_0)
+        if np.any(ratio > 1e6):
+            raise RealizationError(
+                f"{float(np.max(z)):.4g} ohm needs an inner conductor too thin to build in this coax"
+            )
+        return self.outer_diameter_m / ratio
+
+    def notes(self, geometry: np.ndarray, start_hz: float, stop_hz: float, min_feature_m: float) -> list[str]:
+        notes = []
+        if np.any(np.asarray(geometry) < min_feature_m):
+            notes.append(
+                f"An inner conductor of {float(np.min(geometry)) * 1e3:.4g} mm is thinner than the "
+                f"manufacturable minimum of {min_feature_m * 1e3:.4g} mm."
+            )
+        cutoff = 2.0 * C0 / (math.pi * math.sqrt(self.eps_r) * (self.outer_diameter_m + np.asarray(geometry)))
+        if np.any(cutoff <= stop_hz):
+            notes.append(
+                f"The TE11 mode propagates from about {float(np.min(cutoff)) / 1e9:.4g} GHz, within the band "
+                "(cutoff estimate 2c / (pi sqrt(eps_r) (D + d)), common practice)."
+            )
+        return notes

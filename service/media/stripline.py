@@ -1,0 +1,102 @@
+"""Symmetric stripline: a strip of width W centred between ground planes b apart.
+
+Impedance from Cohn's thick-strip formula (Cohn 1955, fringing capacitance of a strip of
+thickness t, accurate for W/(b - t) >= 0.35) with Wheeler's narrow-strip effective width
+W_e = W - (0.35 b - W)^2 / b form below that (the zero-thickness closed form as given in Pozar,
+Microwave Engineering, ch. 3). A TEM line: eps_eff = eps_r, no dispersion.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from service.media.base import LineParameters, invert_monotone
+from service.media.conductors import roughness_factor, surface_resistance_ohm, tem_dielectric_attenuation
+
+C0 = 299_792_458.0
+WIDE_LIMIT = 0.35
+
+
+def fringing_term(t_over_b: float) -> float:
+    """Cohn's normalized fringing capacitance; ln(2) * 2 / pi = 0.441 at zero thickness."""
+    x = 1.0 - t_over_b
+    if t_over_b == 0.0:
+        return 2.0 * math.log(2.0) / math.pi
+    return (2.0 / x * math.log(1.0 / x + 1.0) - (1.0 / x - 1.0) * math.log(1.0 / (x * x) - 1.0)) / math.pi
+
+
+def stripline_impedance(width_m: np.ndarray, spacing_m: float, thickness_m: float, eps_r: float) -> np.ndarray:
+    """Characteristic impedance of the strip, for each width."""
+    w = np.asarray(width_m, dtype=float) / (spacing_m - thickness_m)
+    effective = np.where(w < WIDE_LIMIT, w - (WIDE_LIMIT - w) ** 2, w)
+    return 30.0 * math.pi / math.sqrt(eps_r) / (effective + fringing_term(thickness_m / spacing_m))
+
+
+@dataclass(frozen=True)
+class StriplineLine:
+    """Stripline of the given ground spacing, strip thickness and dielectric."""
+
+    eps_r: float
+    ground_spacing_m: float
+    thickness_m: float
+    loss_tangent: float = 0.0
+    conductivity_s_per_m: float | None = None
+    roughness_m: float = 0.0
+    kind: str = "stripline"
+    geometry_name: str | None = "width_m"
+    dispersive: bool = False
+
+    @property
+    def lossy(self) -> bool:
+        return self.loss_tangent > 0.0 or self.conductivity_s_per_m is not None
+
+    def parameters(self, geometry: np.ndarray, frequency_hz: np.ndarray) -> LineParameters:
+        z = stripline_impedance(geometry, self.ground_spacing_m, self.thickness_m, self.eps_r)
+        shape = np.broadcast_shapes(np.shape(z), np.shape(frequency_hz))
+        impedance = np.broadcast_to(z, shape)
+        attenuation = None
+        if self.lossy:
+            f = np.broadcast_to(np.asarray(frequency_hz, dtype=float), shape)
+            attenuation = tem_dielectric_attenuation(f, self.eps_r, self.loss_tangent)
+            if self.conductivity_s_per_m is not None:
+                # Conductor loss by the incremental-inductance estimate for both strip faces and
+                # grounds: alpha_c ~ Rs / (Z0 (W + t)) * (1 + W / b) / 2 (common practice, no source).
+                rs = surface_resistance_ohm(f, self.conductivity_s_per_m)
+                rough = roughness_factor(f, self.conductivity_s_per_m, self.roughness_m)
+                w = np.asarray(geometry)
+                factor = (1.0 + w / self.ground_spacing_m) / (2.0 * (w + self.thickness_m))
+                attenuation = attenuation + rs * rough * factor / impedance
+        return LineParameters(impedance, np.full(shape, self.eps_r), attenuation)
+
+    def geometry_for(self, impedance_ohm: np.ndarray, frequency_hz: float) -> np.ndarray:
+        def impedance_of(width: float) -> float:
+            return float(stripline_impedance(np.array([width]), self.ground_spacing_m, self.thickness_m, self.eps_r)[0])
+
+        low, high = 1e-3 * self.ground_spacing_m, 100.0 * self.ground_spacing_m
+        return np.array(
+            [invert_monotone(impedance_of, float(z), low, high, "stripline") for z in np.atleast_1d(impedance_ohm)]
+        )
+
+    def notes(self, geometry: np.ndarray, start_hz: float, stop_hz: float, min_feature_m: float) -> list[str]:
+        w = np.asarray(geometry) / (self.ground_spacing_m - self.thickness_m)
+        notes = []
+        if self.thickness_m > 0.0 and np.any(w < WIDE_LIMIT):
+            notes.append(
+                "A strip is narrower than W/(b - t) = 0.35, where Cohn's thick-strip formula is "
+                "extended by the zero-thickness narrow-strip correction; expect about 1% error."
+            )
+        if np.any(np.asarray(geometry) < min_feature_m):
+            notes.append(
+                f"A strip of {float(np.min(geometry)) * 1e3:.4g} mm is narrower than the manufacturable "
+                f"minimum of {min_feature_m * 1e3:.4g} mm."
+            )
+        cutoff = C0 / (math.sqrt(self.eps_r) * (2.0 * np.asarray(geometry) + math.pi * self.ground_spacing_m / 2.0))
+        if np.any(cutoff <= stop_hz):
+            notes.append(
+                f"A strip is wide enough for a higher-order mode from about {float(np.min(cutoff)) / 1e9:.4g} GHz, "
+                "within or below the band (common practice estimate)."
+            )
+        return notes
