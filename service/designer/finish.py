@@ -51,7 +51,7 @@ def finish(
     suggest_exact = theory == design.SMALL_REFLECTION.name and method in THEORY_METHODS
     warnings += spec_warnings(verified, suggest_exact)
     if target.rotation is None and not target.load.frequency_dependent:
-        warnings += departure_warnings(predicted, verified, theory)
+        warnings += departure_warnings(predicted, verified, theory, line.medium)
     else:
         warnings.append(
             f"The {theory} prediction covers the transformer into the load's centre-frequency "

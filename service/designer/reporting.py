@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from service.media import Medium
 from service.schemas.results import BodeFanoFigures, PredictedFigures, VerifiedFigures
 from service.verification import return_loss_db
 from service.wording import hz_text, percent_text
@@ -23,13 +24,17 @@ def spec_warnings(verified: VerifiedFigures, suggest_exact: bool = False) -> lis
     ]
 
 
-def departure_warnings(predicted: PredictedFigures, verified: VerifiedFigures, theory: str) -> list[str]:
-    """A plain sentence when the exact peak departs noticeably from the theory's."""
+def departure_warnings(
+    predicted: PredictedFigures, verified: VerifiedFigures, theory: str, medium: Medium
+) -> list[str]:
+    """A plain sentence when the exact peak departs noticeably from the theory's, and why it may."""
     if abs(predicted.departure_fraction) <= PREDICTION_TOLERANCE:
         return []
+    effects = [name for name, present in (("dispersion", medium.dispersive), ("losses", medium.lossy)) if present]
+    cause = f" The theory assumes an ideal line; the cascade includes {' and '.join(effects)}." if effects else ""
     return [
         f"The exact worst reflection {verified.max_reflection:.4g} differs from the {theory} "
-        f"prediction {predicted.max_reflection:.4g} by {percent_text(predicted.departure_fraction)}."
+        f"prediction {predicted.max_reflection:.4g} by {percent_text(predicted.departure_fraction)}.{cause}"
     ]
 
 
