@@ -2,9 +2,11 @@
 
 from typing import Annotated
 
-from fastapi import APIRouter, Body
+from fastapi import APIRouter, Body, Depends
+from fastapi.responses import Response
 
 from service import designer
+from service.api.delivery import OutputFormat, deliver, export_responses, output_format
 from service.api.documented import error_responses
 from service.examples import request_examples
 from service.schemas.networks import AnalyzeRequest
@@ -18,9 +20,14 @@ def build_router(settings: Settings) -> APIRouter:
     router = APIRouter(prefix="/v1/networks", tags=["networks"], responses=error_responses())
     examples = request_examples(settings.examples_dir, "networks/analyze")
 
-    @router.post("/analyze", response_model=AnalysisResult, summary="Check your own sections")
-    def analyze(request: Annotated[AnalyzeRequest, Body(openapi_examples=examples)]) -> AnalysisResult:
+    @router.post(
+        "/analyze", response_model=AnalysisResult, summary="Check your own sections", responses=export_responses()
+    )
+    def analyze(
+        request: Annotated[AnalyzeRequest, Body(openapi_examples=examples)],
+        fmt: Annotated[OutputFormat, Depends(output_format)],
+    ) -> AnalysisResult | Response:
         """Verify a list of sections (e.g. a design rounded to buildable impedances) by the exact cascade."""
-        return designer.analyze(request, options)
+        return deliver(request, designer.analyze(request, options), fmt, "analysis")
 
     return router

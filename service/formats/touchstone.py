@@ -142,3 +142,28 @@ def read_one_port(text: str) -> OnePort:
     if not np.all(np.isfinite(impedance)):
         raise TouchstoneError("a data point gives an infinite impedance (|S| = 1 at S = 1, or Y = 0)")
     return OnePort(frequency, impedance)
+
+
+def write_two_port(
+    frequency_hz: np.ndarray, s: np.ndarray, references_ohm: tuple[float, float], comments: list[str]
+) -> str:
+    """Touchstone 2.0 text of a two-port in RI form, one reference impedance per port.
+
+    Version 2.0 is used because it states a reference per port ([Reference]); the data order is
+    the version 2.0 two-port order 12_21, i.e. N11 N21 N12 N22 on each line.
+    """
+    lines = [f"! {comment}" for comment in comments]
+    lines += [
+        "[Version] 2.0",
+        "# Hz S RI R 50",
+        "[Number of Ports] 2",
+        "[Two-Port Data Order] 12_21",
+        f"[Number of Frequencies] {len(frequency_hz)}",
+        f"[Reference] {references_ohm[0]:.17g} {references_ohm[1]:.17g}",
+        "[Network Data]",
+    ]
+    for f, matrix in zip(frequency_hz, s, strict=True):
+        values = (matrix[0, 0], matrix[1, 0], matrix[0, 1], matrix[1, 1])
+        lines.append(f"{f:.17g} " + " ".join(f"{v.real:.17g} {v.imag:.17g}" for v in values))
+    lines.append("[End]")
+    return "\n".join(lines) + "\n"

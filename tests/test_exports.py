@@ -1,0 +1,74 @@
+"""Touchstone and CSV exports of designs, read back with scikit-rf and the csv module."""
+
+import csv
+import io
+import os
+import tempfile
+
+import numpy as np
+import pytest
+import skrf
+
+MICROSTRIP = {
+    "kind": "microstrip",
+    "eps_r": 3.66,
+    "height_m": 0.508e-3,
+    "thickness_m": 35e-6,
+    "loss_tangent": 0.004,
+    "conductivity_s_per_m": 5.8e7,
+}
+
+
+def read_with_scikit_rf(text: str) -> skrf.Network:
+    folder = tempfile.mkdtemp()
+    path = os.path.join(folder, "design.s2p")
+    with open(path, "w") as handle:
+        handle.write(text)
+    return skrf.Network(path)
+
+
+@pytest.mark.parametrize("medium", [None, MICROSTRIP])
+@pytest.mark.parametrize("endpoint", ["chebyshev", "taper"])
+def test_touchstone_reads_back_with_scikit_rf(client, base_request, medium, endpoint):
+    body = base_request | {"sections": 3} if endpoint == "chebyshev" else base_request | {"max_reflection": 0.05}
+    if medium:
+        body["medium"] = medium
+    path = f"/v1/transformers/{endpoint}"
+    design = client.post(path, json=body).json()
+    exported = client.post(path + "?format=touchstone", json=body)
+    assert exported.status_code == 200
+    assert exported.headers["content-type"].startswith("application/x-touchstone")
+    network = read_with_scikit_rf(exported.text)
+    assert network.f == pytest.approx(design["response"]["frequency_hz"], rel=1e-15)
+    assert np.real(network.z0[0]) == pytest.approx([50.0, 100.0])
+    assert np.max(np.abs(np.abs(network.s[:, 0, 0]) - design["response"]["reflection_magnitude"])) < 1e-9
+    assert np.allclose(network.s[:, 0, 1], network.s[:, 1, 0], atol=1e-12)  # reciprocal
+    if medium is None:
+        # Lossless: |S11|^2 + |S21|^2 = 1 (standard textbook result).
+        assert np.allclose(np.abs(network.s[:, 0, 0]) ** 2 + np.abs(network.s[:, 1, 0]) ** 2, 1.0, atol=1e-12)
+    else:
+        loss = -20 * np.log10(np.abs(network.s[:, 1, 0]))
+        assert np.max(np.abs(loss - design["response"]["insertion_loss_db"])) < 1e-9
+
+
+def test_accept_header_chooses_csv(client, base_request):
+    body = base_request | {"sections": 2, "points": 11}
+    design = client.post("/v1/transformers/binomial", json=body).json()
+    exported = client.post("/v1/transformers/binomial", json=body, headers={"Accept": "text/csv"})
+    assert exported.headers["content-type"].startswith("text/csv")
+    rows = list(csv.DictReader(io.StringIO(exported.text)))
+    assert len(rows) == 11
+    assert [float(r["frequency_hz"]) for r in rows] == design["response"]["frequency_hz"]
+    assert [float(r["reflection_magnitude"]) for r in rows] == design["response"]["reflection_magnitude"]
+
+
+def test_analysis_exports_too(client, base_request):
+    sections = [{"impedance_ohm": 70.7, "electrical_length_deg": 90.0}]
+    response = client.post("/v1/networks/analyze?format=csv", json=base_request | {"sections": sections})
+    assert response.status_code == 200 and response.text.startswith("frequency_hz,")
+
+
+def test_unknown_format_is_refused(client, base_request):
+    response = client.post("/v1/transformers/binomial?format=pdf", json=base_request)
+    assert response.status_code == 422
+    assert response.json()["problems"][0]["field"] == "query.format"
