@@ -5,7 +5,6 @@ from __future__ import annotations
 import numpy as np
 
 from service import network
-from service.loads import FixedLoad
 from service.schemas.results import AnalysisResult
 from service.schemas.transformers import MatchRequest
 from service.verification import LineCascade
@@ -17,7 +16,7 @@ def design_line(request: MatchRequest, design: AnalysisResult) -> LineCascade:
     name = medium.geometry_name or "impedance_ohm"
     geometry = np.array([getattr(section, name) for section in design.sections])
     lengths = np.array([section.length_m for section in design.sections])
-    return LineCascade(request.source_ohm, FixedLoad(1.0), medium, geometry, lengths)
+    return LineCascade(request.source_ohm, request.load.model(), medium, geometry, lengths)
 
 
 def two_port(request: MatchRequest, design: AnalysisResult) -> tuple[np.ndarray, np.ndarray, tuple[float, float]]:

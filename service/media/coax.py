@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
@@ -35,12 +35,14 @@ class CoaxLine:
     def lossy(self) -> bool:
         return self.loss_tangent > 0.0 or self.conductivity_s_per_m is not None
 
+    def perturbed(self, eps_r: np.ndarray, height_m: np.ndarray) -> CoaxLine:
+        """The same line with other (array-valued, per-trial) permittivity; coax has no substrate height."""
+        return replace(self, eps_r=eps_r)
+
     def impedance(self, inner_diameter_m: np.ndarray) -> np.ndarray:
         """Z of each inner diameter."""
         return (
-            ETA_0
-            / (2.0 * math.pi * math.sqrt(self.eps_r))
-            * np.log(self.outer_diameter_m / np.asarray(inner_diameter_m))
+            ETA_0 / (2.0 * math.pi * np.sqrt(self.eps_r)) * np.log(self.outer_diameter_m / np.asarray(inner_diameter_m))
         )
 
     def parameters(self, geometry: np.ndarray, frequency_hz: np.ndarray) -> LineParameters:
@@ -56,14 +58,14 @@ class CoaxLine:
                 rs = surface_resistance_ohm(f, self.conductivity_s_per_m)
                 rough = roughness_factor(f, self.conductivity_s_per_m, self.roughness_m)
                 d = np.asarray(geometry)
-                eta = ETA_0 / math.sqrt(self.eps_r)
+                eta = ETA_0 / np.sqrt(self.eps_r)
                 radii_term = 2.0 / d + 2.0 / self.outer_diameter_m
                 attenuation = attenuation + rs * rough * radii_term / (2.0 * eta * np.log(self.outer_diameter_m / d))
         return LineParameters(impedance, np.full(shape, self.eps_r), attenuation)
 
     def geometry_for(self, impedance_ohm: np.ndarray, frequency_hz: float) -> np.ndarray:
         z = np.atleast_1d(np.asarray(impedance_ohm, dtype=float))
-        ratio = np.exp(z * 2.0 * math.pi * math.sqrt(self.eps_r) / ETA_0)
+        ratio = np.exp(z * 2.0 * math.pi * np.sqrt(self.eps_r) / ETA_0)
         if np.any(ratio > 1e6):
             raise RealizationError(
                 f"{float(np.max(z)):.4g} ohm needs an inner conductor too thin to build in this coax"
@@ -77,7 +79,7 @@ class CoaxLine:
                 f"An inner conductor of {float(np.min(geometry)) * 1e3:.4g} mm is thinner than the "
                 f"manufacturable minimum of {min_feature_m * 1e3:.4g} mm."
             )
-        cutoff = 2.0 * C0 / (math.pi * math.sqrt(self.eps_r) * (self.outer_diameter_m + np.asarray(geometry)))
+        cutoff = 2.0 * C0 / (math.pi * np.sqrt(self.eps_r) * (self.outer_diameter_m + np.asarray(geometry)))
         if np.any(cutoff <= stop_hz):
             notes.append(
                 f"The TE11 mode propagates from about {float(np.min(cutoff)) / 1e9:.4g} GHz, within the band "

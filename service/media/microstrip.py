@@ -8,7 +8,7 @@ Kirschning-Jansen: 0.1 <= W/h <= 100, 1 <= eps_r <= 20, f h <= 25 GHz mm).
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
@@ -36,12 +36,11 @@ def _eps_eff_zero_thickness(u: np.ndarray, eps_r: float) -> np.ndarray:
 def static_line(u: np.ndarray, eps_r: float, t_over_h: float) -> tuple[np.ndarray, np.ndarray]:
     """(impedance, effective permittivity) at DC for width ratio u = W/h and thickness ratio t/h."""
     u = np.asarray(u, dtype=float)
-    if t_over_h > 0.0:
-        coth = 1.0 / np.tanh(np.sqrt(6.517 * u))
-        du_air = t_over_h / math.pi * np.log(1.0 + 4.0 * math.e / (t_over_h * coth * coth))
-        du_r = 0.5 * (1.0 + 1.0 / math.cosh(math.sqrt(eps_r - 1.0))) * du_air
-    else:
-        du_air = du_r = np.zeros_like(u)
+    t = np.asarray(t_over_h, dtype=float)
+    safe_t = np.where(t > 0.0, t, 1.0)
+    coth = 1.0 / np.tanh(np.sqrt(6.517 * u))
+    du_air = np.where(t > 0.0, safe_t / math.pi * np.log(1.0 + 4.0 * math.e / (safe_t * coth * coth)), 0.0)
+    du_r = 0.5 * (1.0 + 1.0 / np.cosh(np.sqrt(eps_r - 1.0))) * du_air
     u_air, u_r = u + du_air, u + du_r
     eps_eff = _eps_eff_zero_thickness(u_r, eps_r) * (_z_air(u_air) / _z_air(u_r)) ** 2
     impedance = _z_air(u_r) / np.sqrt(_eps_eff_zero_thickness(u_r, eps_r))
@@ -56,9 +55,9 @@ def dispersive_line(
     u = np.asarray(u, dtype=float)
     fn = np.asarray(frequency_hz, dtype=float) * height_m * 1e-6  # GHz * mm
     p1 = 0.27488 + (0.6315 + 0.525 / (1.0 + 0.0157 * fn) ** 20) * u - 0.065683 * np.exp(-8.7513 * u)
-    p2 = 0.33622 * (1.0 - math.exp(-0.03442 * eps_r))
+    p2 = 0.33622 * (1.0 - np.exp(-0.03442 * eps_r))
     p3 = 0.0363 * np.exp(-4.6 * u) * (1.0 - np.exp(-((fn / 38.7) ** 4.97)))
-    p4 = 1.0 + 2.751 * (1.0 - math.exp(-((eps_r / 15.916) ** 8)))
+    p4 = 1.0 + 2.751 * (1.0 - np.exp(-((eps_r / 15.916) ** 8)))
     p = p1 * p2 * ((0.1844 + p3 * p4) * fn) ** 1.5763
     eps_f = eps_r - (eps_r - e0) / (1.0 + p)
 
@@ -68,7 +67,7 @@ def dispersive_line(
     r4 = 0.016 + (0.0514 * eps_r) ** 4.524
     r5 = (fn / 28.843) ** 12
     r6 = 22.2 * u**1.92
-    r7 = 1.206 - 0.3144 * math.exp(-r1) * (1.0 - np.exp(-r2))
+    r7 = 1.206 - 0.3144 * np.exp(-r1) * (1.0 - np.exp(-r2))
     r8 = 1.0 + 1.275 * (1.0 - np.exp(-0.004625 * r3 * eps_r**1.674 * (fn / 18.365) ** 2.745))
     r9 = (
         5.086
@@ -96,7 +95,7 @@ C0 = 299_792_458.0
 
 def transverse_resonance_hz(width_m: np.ndarray, height_m: float, eps_r: float) -> np.ndarray:
     """First transverse resonance of a wide strip, c / (sqrt(eps_r) (2 W + 0.8 h)) (common practice)."""
-    return C0 / (math.sqrt(eps_r) * (2.0 * np.asarray(width_m) + 0.8 * height_m))
+    return C0 / (np.sqrt(eps_r) * (2.0 * np.asarray(width_m) + 0.8 * height_m))
 
 
 @dataclass(frozen=True)
@@ -117,6 +116,10 @@ class MicrostripLine:
     def lossy(self) -> bool:
         return self.loss_tangent > 0.0 or self.conductivity_s_per_m is not None
 
+    def perturbed(self, eps_r: np.ndarray, height_m: np.ndarray) -> MicrostripLine:
+        """The same line with other (array-valued, per-trial) permittivity and substrate height."""
+        return replace(self, eps_r=eps_r, height_m=height_m)
+
     def parameters(self, geometry: np.ndarray, frequency_hz: np.ndarray) -> LineParameters:
         u = np.asarray(geometry) / self.height_m
         impedance, eps_eff = dispersive_line(
@@ -126,15 +129,10 @@ class MicrostripLine:
         if self.lossy:
             f = np.broadcast_to(np.asarray(frequency_hz, dtype=float), impedance.shape)
             attenuation = np.zeros(impedance.shape)
-            if self.loss_tangent > 0.0 and self.eps_r > 1.0:
+            if self.loss_tangent > 0.0:
                 k0 = 2.0 * math.pi * f / C0
-                attenuation = attenuation + (
-                    k0
-                    * self.eps_r
-                    * (eps_eff - 1.0)
-                    * self.loss_tangent
-                    / (2.0 * np.sqrt(eps_eff) * (self.eps_r - 1.0))
-                )
+                filling = np.where(self.eps_r > 1.0, (eps_eff - 1.0) / np.maximum(self.eps_r - 1.0, 1e-300), 0.0)
+                attenuation = attenuation + k0 * self.eps_r * filling * self.loss_tangent / (2.0 * np.sqrt(eps_eff))
             if self.conductivity_s_per_m is not None:
                 rs = surface_resistance_ohm(f, self.conductivity_s_per_m)
                 rough = roughness_factor(f, self.conductivity_s_per_m, self.roughness_m)

@@ -9,7 +9,7 @@ Microwave Engineering, ch. 3). A TEM line: eps_eff = eps_r, no dispersion.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
@@ -20,19 +20,20 @@ C0 = 299_792_458.0
 WIDE_LIMIT = 0.35
 
 
-def fringing_term(t_over_b: float) -> float:
+def fringing_term(t_over_b: float | np.ndarray) -> np.ndarray:
     """Cohn's normalized fringing capacitance; ln(2) * 2 / pi = 0.441 at zero thickness."""
-    x = 1.0 - t_over_b
-    if t_over_b == 0.0:
-        return 2.0 * math.log(2.0) / math.pi
-    return (2.0 / x * math.log(1.0 / x + 1.0) - (1.0 / x - 1.0) * math.log(1.0 / (x * x) - 1.0)) / math.pi
+    x = 1.0 - np.asarray(t_over_b, dtype=float)
+    thin = x >= 1.0
+    safe = np.where(thin, 0.5, x)
+    thick = (2.0 / safe * np.log(1.0 / safe + 1.0) - (1.0 / safe - 1.0) * np.log(1.0 / (safe * safe) - 1.0)) / math.pi
+    return np.where(thin, 2.0 * np.log(2.0) / math.pi, thick)
 
 
 def stripline_impedance(width_m: np.ndarray, spacing_m: float, thickness_m: float, eps_r: float) -> np.ndarray:
     """Characteristic impedance of the strip, for each width."""
     w = np.asarray(width_m, dtype=float) / (spacing_m - thickness_m)
     effective = np.where(w < WIDE_LIMIT, w - (WIDE_LIMIT - w) ** 2, w)
-    return 30.0 * math.pi / math.sqrt(eps_r) / (effective + fringing_term(thickness_m / spacing_m))
+    return 30.0 * math.pi / np.sqrt(eps_r) / (effective + fringing_term(thickness_m / spacing_m))
 
 
 @dataclass(frozen=True)
@@ -52,6 +53,10 @@ class StriplineLine:
     @property
     def lossy(self) -> bool:
         return self.loss_tangent > 0.0 or self.conductivity_s_per_m is not None
+
+    def perturbed(self, eps_r: np.ndarray, height_m: np.ndarray) -> StriplineLine:
+        """The same line with other (array-valued, per-trial) permittivity and substrate height."""
+        return replace(self, eps_r=eps_r, ground_spacing_m=height_m)
 
     def parameters(self, geometry: np.ndarray, frequency_hz: np.ndarray) -> LineParameters:
         z = stripline_impedance(geometry, self.ground_spacing_m, self.thickness_m, self.eps_r)
@@ -93,7 +98,7 @@ class StriplineLine:
                 f"A strip of {float(np.min(geometry)) * 1e3:.4g} mm is narrower than the manufacturable "
                 f"minimum of {min_feature_m * 1e3:.4g} mm."
             )
-        cutoff = C0 / (math.sqrt(self.eps_r) * (2.0 * np.asarray(geometry) + math.pi * self.ground_spacing_m / 2.0))
+        cutoff = C0 / (np.sqrt(self.eps_r) * (2.0 * np.asarray(geometry) + math.pi * self.ground_spacing_m / 2.0))
         if np.any(cutoff <= stop_hz):
             notes.append(
                 f"A strip is wide enough for a higher-order mode from about {float(np.min(cutoff)) / 1e9:.4g} GHz, "

@@ -1,0 +1,44 @@
+"""Drawings and tolerance yield of realized designs."""
+
+from typing import Annotated
+
+from fastapi import APIRouter, Body
+from fastapi.responses import Response
+
+from service import designer
+from service.api.documented import error_responses
+from service.examples import request_examples
+from service.formats.svg import transformer_svg
+from service.schemas.items import DesignItem
+from service.schemas.tolerance import YieldRequest, YieldResult
+from service.settings import Settings
+
+SVG_TYPE = "image/svg+xml"
+
+
+def build_router(settings: Settings) -> APIRouter:
+    """The /v1/drawings and /v1/yield routes."""
+    options = settings.design_options()
+    router = APIRouter(prefix="/v1", tags=["realization"], responses=error_responses())
+    drawing_examples = request_examples(settings.examples_dir, "drawings")
+    yield_examples = request_examples(settings.examples_dir, "yield")
+
+    @router.post(
+        "/drawings",
+        summary="Drawing of the realized transformer",
+        response_class=Response,
+        responses={200: {"content": {SVG_TYPE: {"schema": {"type": "string"}}}, "description": "An SVG drawing."}},
+    )
+    def drawing(item: Annotated[DesignItem, Body(openapi_examples=drawing_examples)]) -> Response:
+        """Design with the named method and draw it: strip steps from above, or the coax in cut-away."""
+        design = designer.design_item(item, options)
+        outer = getattr(item.medium, "outer_diameter_m", None)
+        title = f"Stepline {item.method} transformer, {design.medium}, {len(design.sections)} sections"
+        return Response(transformer_svg(design, title, outer), media_type=SVG_TYPE)
+
+    @router.post("/yield", response_model=YieldResult, summary="Monte Carlo yield under tolerances")
+    def tolerance_yield(request: Annotated[YieldRequest, Body(openapi_examples=yield_examples)]) -> YieldResult:
+        """Design, then perturb widths, etch, permittivity and height over seeded trials."""
+        return designer.yield_analysis(request, options)
+
+    return router

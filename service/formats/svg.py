@@ -1,0 +1,95 @@
+"""An SVG drawing of a realized transformer: a top view of strip steps, or a coax cut-away.
+
+Horizontal and vertical scales are set separately so that short, wide and long, narrow sections
+all stay visible; both scales are printed on the drawing. Every section is one <rect> of class
+"section", labelled with its impedance, width (or inner diameter) and length.
+"""
+
+from __future__ import annotations
+
+from xml.sax.saxutils import escape
+
+from service.schemas.results import AnalysisResult
+
+WIDTH_PX = 960
+DRAW_LEFT, DRAW_RIGHT = 70, 890
+AXIS_Y = 150
+MAX_HALF_HEIGHT_PX = 90
+MIN_HALF_HEIGHT_PX = 1.0
+LABEL_TOP = 268
+COPPER = "#b8733a"
+BOARD = "#20423a"
+SHIELD = "#8a96a3"
+INK = "#1d2731"
+
+
+def _size(section, kind: str) -> float:
+    """The drawn transverse size of a section: width, inner diameter, or 1/Z on the ideal line."""
+    if kind == "coax":
+        return section.inner_diameter_m
+    if section.width_m is not None:
+        return section.width_m
+    return 1.0 / section.impedance_ohm
+
+
+def _label(section, kind: str) -> str:
+    if kind == "coax":
+        size = f"d {section.inner_diameter_m * 1e3:.3f} mm"
+    elif section.width_m is not None:
+        size = f"W {section.width_m * 1e3:.3f} mm"
+    else:
+        size = f"{section.electrical_length_deg:.1f} deg"
+    return f"{section.impedance_ohm:.2f} ohm | {size} | L {section.length_m * 1e3:.3f} mm"
+
+
+def transformer_svg(design: AnalysisResult, title: str, outer_diameter_m: float | None = None) -> str:
+    """The drawing as SVG text."""
+    kind = design.medium
+    sections = design.sections
+    total = sum(s.length_m for s in sections)
+    sizes = [_size(s, kind) for s in sections]
+    largest = max([*sizes, outer_diameter_m or 0.0])
+    x_scale = (DRAW_RIGHT - DRAW_LEFT) / total
+    y_scale = MAX_HALF_HEIGHT_PX / (0.5 * largest)
+    label_step = max(9.0, min(14.0, (DRAW_RIGHT - DRAW_LEFT) / max(len(sections), 1)))
+    height_px = LABEL_TOP + 300
+    parts = [
+        f'<svg xmlns="http://www.w3.org/2000/svg" width="{WIDTH_PX}" height="{height_px}" '
+        f'viewBox="0 0 {WIDTH_PX} {height_px}" font-family="sans-serif" font-size="11" fill="{INK}">',
+        f"<title>{escape(title)}</title>",
+        f'<rect x="0" y="0" width="{WIDTH_PX}" height="{height_px}" fill="#f4f1ea"/>',
+        f'<text x="{DRAW_LEFT}" y="24" font-size="15" font-weight="bold">{escape(title)}</text>',
+    ]
+    if kind == "coax" and outer_diameter_m:
+        half = 0.5 * outer_diameter_m * y_scale
+        parts.append(
+            f'<rect class="shield" x="{DRAW_LEFT}" y="{AXIS_Y - half:.2f}" width="{DRAW_RIGHT - DRAW_LEFT}" '
+            f'height="{2 * half:.2f}" fill="none" stroke="{SHIELD}" stroke-width="3"/>'
+        )
+    elif kind in ("microstrip", "stripline"):
+        parts.append(
+            f'<rect class="board" x="{DRAW_LEFT - 40}" y="{AXIS_Y - MAX_HALF_HEIGHT_PX - 20}" '
+            f'width="{DRAW_RIGHT - DRAW_LEFT + 80}" height="{2 * MAX_HALF_HEIGHT_PX + 40}" fill="{BOARD}" rx="6"/>'
+        )
+    parts.append(f'<text x="8" y="{AXIS_Y + 4}">source</text>')
+    parts.append(f'<text x="{DRAW_RIGHT + 14}" y="{AXIS_Y + 4}">load</text>')
+    x = float(DRAW_LEFT)
+    for index, (section, size) in enumerate(zip(sections, sizes, strict=True), start=1):
+        width_px = section.length_m * x_scale
+        half = max(MIN_HALF_HEIGHT_PX, 0.5 * size * y_scale)
+        parts.append(
+            f'<rect class="section" data-index="{index}" x="{x:.3f}" y="{AXIS_Y - half:.3f}" '
+            f'width="{width_px:.3f}" height="{2 * half:.3f}" fill="{COPPER}" stroke="#5b3416" stroke-width="0.5">'
+            f"<title>section {index}: {escape(_label(section, kind))}</title></rect>"
+        )
+        parts.append(
+            f'<text x="{x + width_px / 2:.2f}" y="{LABEL_TOP}" font-size="{min(11.0, label_step - 1):.1f}" '
+            f'transform="rotate(60 {x + width_px / 2:.2f} {LABEL_TOP})">{index}: {escape(_label(section, kind))}</text>'
+        )
+        x += width_px
+    parts.append(
+        f'<text x="{DRAW_LEFT}" y="{height_px - 14}" font-size="10">horizontal: 1 px = {1e3 / x_scale:.4g} mm; '
+        f"vertical: 1 px = {1e3 / y_scale:.4g} mm (scales differ); total length {total * 1e3:.3f} mm</text>"
+    )
+    parts.append("</svg>")
+    return "\n".join(parts)

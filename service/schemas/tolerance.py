@@ -1,0 +1,58 @@
+"""Request and response of the Monte Carlo yield analysis."""
+
+from __future__ import annotations
+
+from typing import Annotated
+
+from pydantic import BaseModel, Field
+
+from service.schemas.common import StrictModel
+from service.schemas.items import DesignItem
+from service.schemas.results import TransformerDesign
+
+MAX_TRIALS = 20000
+Sigma = Annotated[float, Field(ge=0.0, le=0.01, description="One standard deviation, in metres.")]
+
+
+class ToleranceSpec(StrictModel):
+    """One-sigma manufacturing errors of a normal distribution each."""
+
+    width_m: Sigma = Field(0.0, description="Independent error of each strip width (or inner diameter), metres.")
+    eps_r: float = Field(0.0, ge=0.0, le=5.0, description="Error of the board's relative permittivity.")
+    height_m: Sigma = Field(0.0, description="Error of the substrate height (stripline: ground spacing), metres.")
+    etch_bias_m: Sigma = Field(0.0, description="Error common to all widths of a board (over- or under-etch), metres.")
+
+
+class YieldRequest(StrictModel):
+    """Design with `design` (any method, in a physical medium), then run `trials` perturbed copies."""
+
+    design: DesignItem
+    tolerances: ToleranceSpec
+    trials: int = Field(1000, ge=1, le=MAX_TRIALS)
+    seed: int = Field(0, ge=0, le=2**63 - 1, description="Seed of the random draws; the same seed repeats the result.")
+
+
+class Percentiles(BaseModel):
+    """Percentiles of the trials' worst in-band reflection."""
+
+    p50: float
+    p90: float
+    p95: float
+    p99: float
+
+
+class YieldResult(BaseModel):
+    """The nominal design and how its copies fared."""
+
+    design: TransformerDesign
+    trials: int
+    seed: int
+    spec_max_reflection: float
+    yield_fraction: float = Field(description="Fraction of trials whose worst in-band reflection meets the spec.")
+    standard_error: float = Field(description="Binomial sampling error sqrt(p (1 - p) / N) of the yield.")
+    interval_95: tuple[float, float] = Field(description="Wilson 95% interval of the yield.")
+    nominal_max_reflection: float = Field(description="The nominal design's worst reflection on the same grid.")
+    worst_max_reflection: float = Field(description="The worst trial's worst in-band reflection.")
+    percentiles: Percentiles
+    grid_points: int = Field(description="Frequencies over the band at which each trial is evaluated.")
+    method: str = Field(description="How the yield was estimated, in words.")

@@ -1,0 +1,129 @@
+"""Drawings of realized designs and their Monte Carlo yield."""
+
+import copy
+import json
+import xml.etree.ElementTree as ET
+
+import pytest
+
+from service.settings import PROJECT_ROOT
+
+SVG = "{http://www.w3.org/2000/svg}"
+MICROSTRIP = {"kind": "microstrip", "eps_r": 3.66, "height_m": 0.508e-3, "thickness_m": 35e-6}
+ITEM = {
+    "method": "chebyshev",
+    "source_ohm": 50.0,
+    "load": {"resistance_ohm": 20.0},
+    "band": {"start_hz": 2e9, "stop_hz": 4e9},
+    "max_reflection": 0.05,
+    "theory": "exact",
+    "medium": MICROSTRIP,
+}
+
+
+@pytest.mark.parametrize(
+    "item",
+    [
+        ITEM,
+        ITEM | {"method": "taper", "profile": "klopfenstein", "segments": 40, "theory": None},
+        ITEM
+        | {"method": "binomial", "sections": 2, "medium": {"kind": "coax", "eps_r": 2.1, "outer_diameter_m": 7e-3}},
+        ITEM | {"method": "quarter-wave", "medium": None, "theory": None},
+        ITEM | {"load": {"resistance_ohm": 20.0, "reactance_ohm": 12.0}},
+    ],
+)
+def test_drawing_is_valid_svg_with_one_shape_per_section(client, item):
+    item = {k: v for k, v in item.items() if v is not None}
+    design = (
+        client.post("/v1/yield", json={"design": item, "tolerances": {}, "trials": 1}).json()["design"]
+        if "medium" in item
+        else None
+    )
+    response = client.post("/v1/drawings", json=item)
+    assert response.status_code == 200, response.text
+    assert response.headers["content-type"].startswith("image/svg+xml")
+    root = ET.fromstring(response.text)
+    assert root.tag == f"{SVG}svg"
+    shapes = [r for r in root.iter(f"{SVG}rect") if r.get("class") == "section"]
+    if design is not None:
+        assert len(shapes) == len(design["sections"])
+        labels = " ".join(t.text or "" for t in root.iter(f"{SVG}text"))
+        first = design["sections"][0]
+        size = first.get("width_m") or first.get("inner_diameter_m")
+        assert f"{size * 1e3:.3f} mm" in labels and f"L {first['length_m'] * 1e3:.3f} mm" in labels
+    widths = [float(r.get("width")) for r in shapes]
+    assert min(widths) > 0
+
+
+def yield_of(client, tolerances, trials=400, seed=11, item=ITEM):
+    body = {"design": item, "tolerances": tolerances, "trials": trials, "seed": seed}
+    response = client.post("/v1/yield", json=body)
+    assert response.status_code == 200, response.text
+    return response.json()
+
+
+def test_zero_tolerances_yield_everything(client):
+    result = yield_of(client, {})
+    assert result["design"]["verified"]["meets_spec"]
+    assert result["yield_fraction"] == 1.0 and result["standard_error"] == 0.0
+    assert result["worst_max_reflection"] == pytest.approx(result["nominal_max_reflection"], rel=1e-12)
+
+
+def test_wider_tolerances_lower_the_yield(client):
+    fractions = []
+    for scale in (0.0, 1.0, 2.0, 4.0, 8.0):
+        tolerances = {
+            "width_m": 15e-6 * scale,
+            "etch_bias_m": 10e-6 * scale,
+            "eps_r": 0.04 * scale,
+            "height_m": 8e-6 * scale,
+        }
+        fractions.append(yield_of(client, tolerances)["yield_fraction"])
+    assert fractions == sorted(fractions, reverse=True)
+    assert fractions[0] == 1.0 and fractions[-1] < 0.9
+
+
+def test_same_seed_same_result_and_sampling_error(client):
+    tolerances = {"width_m": 60e-6, "eps_r": 0.15}
+    first, again = yield_of(client, tolerances), yield_of(client, tolerances)
+    assert first == again
+    other = yield_of(client, tolerances, seed=12)
+    assert other["yield_fraction"] != first["yield_fraction"] or other["percentiles"] != first["percentiles"]
+    p, n = first["yield_fraction"], first["trials"]
+    # Binomial standard error sqrt(p (1 - p) / N) (textbook statistics).
+    assert first["standard_error"] == pytest.approx((p * (1 - p) / n) ** 0.5)
+    low, high = first["interval_95"]
+    assert low <= p <= high
+
+
+def test_yield_needs_a_physical_medium(client):
+    item = {k: v for k, v in ITEM.items() if k != "medium"}
+    response = client.post("/v1/yield", json={"design": item, "tolerances": {}})
+    assert response.status_code == 422
+    assert response.json()["problems"][0]["field"] == "design.medium"
+
+
+@pytest.mark.parametrize(
+    "change, field",
+    [
+        ({"trials": 0}, "trials"),
+        ({"trials": 10**6}, "trials"),
+        ({"tolerances": {"width_m": -1e-6}}, "tolerances.width_m"),
+        ({"design": ITEM | {"method": "stub"}}, "design"),
+    ],
+)
+def test_bad_yield_requests(client, change, field):
+    body = {"design": ITEM, "tolerances": {}} | change
+    response = client.post("/v1/yield", json=body)
+    assert response.status_code == 422
+    assert field in [p["field"] for p in response.json()["problems"]]
+
+
+def test_shipped_yield_example_runs(client):
+    example = json.loads((PROJECT_ROOT / "openapi_examples/yield/microstrip-board.json").read_text())
+    result = yield_of(
+        client,
+        **{k: copy.deepcopy(v) for k, v in example["value"].items() if k != "design"},
+        item=example["value"]["design"],
+    )
+    assert 0.0 < result["yield_fraction"] <= 1.0
