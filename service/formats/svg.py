@@ -13,10 +13,10 @@ from service.schemas.results import AnalysisResult
 
 WIDTH_PX = 960
 DRAW_LEFT, DRAW_RIGHT = 70, 890
-AXIS_Y = 150
+AXIS_Y = 172
 MAX_HALF_HEIGHT_PX = 90
 MIN_HALF_HEIGHT_PX = 1.0
-LABEL_TOP = 268
+LABEL_TOP = 290
 COPPER = "#b8733a"
 BOARD = "#20423a"
 SHIELD = "#8a96a3"
@@ -71,8 +71,9 @@ def transformer_svg(design: AnalysisResult, title: str, outer_diameter_m: float 
             f'<rect class="board" x="{DRAW_LEFT - 40}" y="{AXIS_Y - MAX_HALF_HEIGHT_PX - 20}" '
             f'width="{DRAW_RIGHT - DRAW_LEFT + 80}" height="{2 * MAX_HALF_HEIGHT_PX + 40}" fill="{BOARD}" rx="6"/>'
         )
-    parts.append(f'<text x="8" y="{AXIS_Y + 4}">source</text>')
-    parts.append(f'<text x="{DRAW_RIGHT + 14}" y="{AXIS_Y + 4}">load</text>')
+    top = AXIS_Y - MAX_HALF_HEIGHT_PX - 28
+    parts.append(f'<text x="{DRAW_LEFT}" y="{top}">source side</text>')
+    parts.append(f'<text x="{DRAW_RIGHT}" y="{top}" text-anchor="end">load side</text>')
     x = float(DRAW_LEFT)
     for index, (section, size) in enumerate(zip(sections, sizes, strict=True), start=1):
         width_px = section.length_m * x_scale
