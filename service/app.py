@@ -6,7 +6,7 @@ from fastapi import FastAPI
 from fastapi.middleware.cors import CORSMiddleware
 
 from service import __version__
-from service.api import health, networks, realization, transformers
+from service.api import bulk, health, networks, realization, transformers
 from service.errors import install_error_handlers
 from service.settings import Settings
 
@@ -33,6 +33,7 @@ def create_app(settings: Settings | None = None) -> FastAPI:
     app.include_router(transformers.build_router(settings))
     app.include_router(networks.build_router(settings))
     app.include_router(realization.build_router(settings))
+    app.include_router(bulk.build_router(settings))
     return app
 
 

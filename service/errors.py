@@ -25,13 +25,20 @@ class UnmeetableRequestError(Exception):
         self.message = message
 
 
+UNION_TAGS = frozenset({"quarter-wave", "binomial", "chebyshev", "taper", "ideal", "microstrip", "stripline", "coax"})
+
+
 def field_path(location: Sequence[Any]) -> str:
-    """('body', 'sections', 2, 'impedance_ohm') -> 'sections[2].impedance_ohm'."""
+    """('body', 'sections', 2, 'impedance_ohm') -> 'sections[2].impedance_ohm'.
+
+    The tags pydantic puts in the location of a discriminated union (a method or medium kind)
+    are dropped, so the path names the field as the client wrote it.
+    """
     parts = list(location)
     if parts and parts[0] == "body":
         parts = parts[1:]
     path = ""
-    for part in parts:
+    for part in (p for p in parts if p not in UNION_TAGS):
         if isinstance(part, int):
             path += f"[{part}]"
         else:

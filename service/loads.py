@@ -36,7 +36,8 @@ class FixedLoad:
     frequency_dependent: bool = False
 
     def impedance_ohm(self, frequency_hz: np.ndarray) -> np.ndarray:
-        return np.full(np.shape(frequency_hz), complex(self.resistance_ohm, self.reactance_ohm))
+        impedance = np.asarray(self.resistance_ohm) + 1j * np.asarray(self.reactance_ohm)
+        return impedance * np.ones(np.shape(frequency_hz))
 
     def frequency_range_hz(self) -> tuple[float, float] | None:
         return None

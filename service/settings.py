@@ -7,6 +7,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 from service.designer.lines import DesignOptions
+from service.schemas.bulk import DEFAULT_MAX_BATCH_ITEMS, DEFAULT_MAX_SWEEP_DESIGNS
 
 PROJECT_ROOT = Path(__file__).resolve().parent.parent
 
@@ -22,6 +23,8 @@ class Settings:
     examples_dir: Path = PROJECT_ROOT / "openapi_examples"
     cors_allow_origins: list[str] = field(default_factory=list)
     min_feature_m: float = 1e-4
+    max_batch_items: int = DEFAULT_MAX_BATCH_ITEMS
+    max_sweep_designs: int = DEFAULT_MAX_SWEEP_DESIGNS
 
     def design_options(self) -> DesignOptions:
         """The settings the designer needs."""
@@ -35,4 +38,6 @@ class Settings:
             examples_dir=Path(os.environ.get("STEPLINE_EXAMPLES_DIR", defaults.examples_dir)),
             cors_allow_origins=_origins(os.environ.get("STEPLINE_CORS_ALLOW_ORIGINS", "")),
             min_feature_m=float(os.environ.get("STEPLINE_MIN_FEATURE_M", defaults.min_feature_m)),
+            max_batch_items=int(os.environ.get("STEPLINE_MAX_BATCH_ITEMS", defaults.max_batch_items)),
+            max_sweep_designs=int(os.environ.get("STEPLINE_MAX_SWEEP_DESIGNS", defaults.max_sweep_designs)),
         )

@@ -12,7 +12,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from service import network
-from service.loads import LoadModel
+from service.loads import FixedLoad, LoadModel
 from service.media import Medium
 from service.schemas.results import JunctionResult, ResponseCurve, VerifiedFigures
 
@@ -96,55 +96,153 @@ def vswr(reflection: float) -> float:
     return (1.0 + reflection) / (1.0 - reflection)
 
 
-def worst_reflection(line: LineCascade, start_hz: float, stop_hz: float) -> tuple[float, float]:
-    """Largest |reflection| over [start, stop] and where it occurs.
+def stack(lines: list[LineCascade]) -> LineCascade:
+    """Lines of equal section count in one medium into fixed loads, as one line with a leading design axis.
+
+    The stacked line's source is (D, 1), its load a FixedLoad of (D, 1) arrays, its geometry and
+    lengths (D, 1, S): evaluated at frequencies (D, F) it gives every design's response at once.
+    """
+    return LineCascade(
+        np.array([[line.source_ohm] for line in lines]),
+        FixedLoad(
+            np.array([[line.load.resistance_ohm] for line in lines]),
+            np.array([[line.load.reactance_ohm] for line in lines]),
+        ),
+        lines[0].medium,
+        np.stack([line.geometry for line in lines])[:, None, :],
+        np.stack([line.lengths_m for line in lines])[:, None, :],
+    )
+
+
+def stack_key(line: LineCascade) -> tuple | None:
+    """Lines with equal keys can be stacked; None for lines that must be evaluated alone."""
+    if not isinstance(line.load, FixedLoad):
+        return None
+    return line.geometry.size, line.medium
+
+
+def stacked_groups(lines: list[LineCascade]) -> list[list[int]]:
+    """Indices of the lines, grouped so that each group can be stacked (or is a single line)."""
+    groups: dict[tuple, list[int]] = {}
+    singles = []
+    for index, line in enumerate(lines):
+        key = stack_key(line)
+        if key is None:
+            singles.append([index])
+        else:
+            groups.setdefault(key, []).append(index)
+    return list(groups.values()) + singles
+
+
+def _evaluate(lines: list[LineCascade], indices: list[int]) -> LineCascade:
+    return lines[indices[0]] if len(indices) == 1 else stack([lines[i] for i in indices])
+
+
+def _grids(starts: np.ndarray, stops: np.ndarray, count: int, squeeze: bool) -> np.ndarray:
+    grid = starts[:, None] + (stops - starts)[:, None] * np.linspace(0.0, 1.0, count)
+    grid[:, -1] = stops
+    return grid[0] if squeeze else grid
+
+
+def worst_reflections(line: LineCascade, grid: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Largest |reflection| over each row of the frequency grid (..., F), and where it occurs.
 
     A dense grid finds the worst peak (many points per lobe of the response), and a finer grid
     between its neighbours pins it down.
     """
-    count = check_grid_points(line, stop_hz)
-    grid = np.linspace(start_hz, stop_hz, count)
     values = line.reflection(grid)
-    index = int(np.argmax(values))
-    fine = np.linspace(grid[max(index - 1, 0)], grid[min(index + 1, count - 1)], REFINE_POINTS)
+    last = grid.shape[-1] - 1
+    index = np.argmax(values, axis=-1)[..., None]
+    low = np.take_along_axis(grid, np.maximum(index - 1, 0), axis=-1)
+    high = np.take_along_axis(grid, np.minimum(index + 1, last), axis=-1)
+    fine = low + (high - low) * np.linspace(0.0, 1.0, REFINE_POINTS)
     fine_values = line.reflection(fine)
-    fine_index = int(np.argmax(fine_values))
-    if fine_values[fine_index] > values[index]:
-        return float(fine_values[fine_index]), float(fine[fine_index])
-    return float(values[index]), float(grid[index])
+    fine_index = np.argmax(fine_values, axis=-1)[..., None]
+    coarse_best = np.take_along_axis(values, index, axis=-1)[..., 0]
+    fine_best = np.take_along_axis(fine_values, fine_index, axis=-1)[..., 0]
+    better = fine_best > coarse_best
+    worst = np.where(better, fine_best, coarse_best)
+    where = np.where(
+        better, np.take_along_axis(fine, fine_index, axis=-1)[..., 0], np.take_along_axis(grid, index, axis=-1)[..., 0]
+    )
+    return worst, where
 
 
-def verified_figures(line: LineCascade, start_hz: float, stop_hz: float, spec_reflection: float) -> VerifiedFigures:
-    """The verified block: worst reflection and its derived figures, judged against the spec."""
-    worst, where = worst_reflection(line, start_hz, stop_hz)
-    lossy = line.medium.lossy
-    max_loss = None
-    if lossy:
-        max_loss = float(np.max(line.insertion_loss_db(np.linspace(start_hz, stop_hz, MIN_CHECK_POINTS))))
+def worst_reflection(line: LineCascade, start_hz: float, stop_hz: float) -> tuple[float, float]:
+    """Largest |reflection| of one line over [start, stop] and where it occurs."""
+    worst, where = worst_reflections(line, np.linspace(start_hz, stop_hz, check_grid_points(line, stop_hz)))
+    return float(worst), float(where)
+
+
+def verified_figures_many(
+    lines: list[LineCascade], starts: np.ndarray, stops: np.ndarray, specs: np.ndarray
+) -> list[VerifiedFigures]:
+    """The verified block of every line, stacked where the lines allow."""
+    figures: list[VerifiedFigures | None] = [None] * len(lines)
+    for indices in stacked_groups(lines):
+        line = _evaluate(lines, indices)
+        single = len(indices) == 1
+        count = max(check_grid_points(lines[i], stops[i]) for i in indices)
+        grid = _grids(starts[indices], stops[indices], count, single)
+        worst, where = (np.atleast_1d(a) for a in worst_reflections(line, grid))
+        losses = [None] * len(indices)
+        if line.medium.lossy:
+            loss_grid = _grids(starts[indices], stops[indices], MIN_CHECK_POINTS, single)
+            losses = np.atleast_1d(np.max(line.insertion_loss_db(loss_grid), axis=-1)).tolist()
+        for position, index in enumerate(indices):
+            figures[index] = _figures(lines[index], worst[position], where[position], specs[index], losses[position])
+    return figures
+
+
+def _figures(line: LineCascade, worst: float, where: float, spec: float, max_loss: float | None) -> VerifiedFigures:
+    worst = float(worst)
     return VerifiedFigures(
         max_reflection=worst,
         max_vswr=vswr(worst),
         min_return_loss_db=float(return_loss_db(worst)),
-        worst_frequency_hz=where,
-        spec_max_reflection=spec_reflection,
-        meets_spec=worst <= spec_reflection * (1.0 + 1e-9),
+        worst_frequency_hz=float(where),
+        spec_max_reflection=float(spec),
+        meets_spec=worst <= spec * (1.0 + 1e-9),
         includes_dispersion=line.medium.dispersive,
-        includes_losses=lossy,
+        includes_losses=line.medium.lossy,
         max_insertion_loss_db=max_loss,
     )
 
 
+def verified_figures(line: LineCascade, start_hz: float, stop_hz: float, spec_reflection: float) -> VerifiedFigures:
+    """The verified block of one line: worst reflection and its derived figures, judged against the spec."""
+    return verified_figures_many([line], np.array([start_hz]), np.array([stop_hz]), np.array([spec_reflection]))[0]
+
+
+def response_curves_many(
+    lines: list[LineCascade], starts: np.ndarray, stops: np.ndarray, points: np.ndarray
+) -> list[ResponseCurve]:
+    """The exact response of every line at its evenly spread frequencies, stacked where shapes allow."""
+    curves: list[ResponseCurve | None] = [None] * len(lines)
+    for group in stacked_groups(lines):
+        by_points: dict[int, list[int]] = {}
+        for index in group:
+            by_points.setdefault(int(points[index]), []).append(index)
+        for count, indices in by_points.items():
+            line = _evaluate(lines, indices)
+            single = len(indices) == 1
+            grid = _grids(starts[indices], stops[indices], count, single)
+            magnitudes = np.atleast_2d(line.reflection(grid))
+            losses = np.atleast_2d(line.insertion_loss_db(grid)) if line.medium.lossy else None
+            grid = np.atleast_2d(grid)
+            for position, index in enumerate(indices):
+                curves[index] = ResponseCurve(
+                    frequency_hz=grid[position].tolist(),
+                    reflection_magnitude=magnitudes[position].tolist(),
+                    return_loss_db=return_loss_db(magnitudes[position]).tolist(),
+                    insertion_loss_db=None if losses is None else losses[position].tolist(),
+                )
+    return curves
+
+
 def response_curve(line: LineCascade, start_hz: float, stop_hz: float, points: int) -> ResponseCurve:
-    """The exact response at evenly spread frequencies, both band limits included."""
-    frequencies = np.linspace(start_hz, stop_hz, points)
-    magnitudes = line.reflection(frequencies)
-    loss = line.insertion_loss_db(frequencies).tolist() if line.medium.lossy else None
-    return ResponseCurve(
-        frequency_hz=frequencies.tolist(),
-        reflection_magnitude=magnitudes.tolist(),
-        return_loss_db=return_loss_db(magnitudes).tolist(),
-        insertion_loss_db=loss,
-    )
+    """The exact response of one line at evenly spread frequencies, both band limits included."""
+    return response_curves_many([line], np.array([start_hz]), np.array([stop_hz]), np.array([points]))[0]
 
 
 def junction_results(line: LineCascade, frequency_hz: float) -> list[JunctionResult]:

@@ -141,11 +141,11 @@ def test_narrow_strip_is_flagged(client, base_request):
 @pytest.mark.parametrize(
     "medium, field",
     [
-        (MICROSTRIP | {"eps_r": 0.5}, "medium.microstrip.eps_r"),
-        (MICROSTRIP | {"height_m": 0.0}, "medium.microstrip.height_m"),
-        (MICROSTRIP | {"thickness_m": -1e-6}, "medium.microstrip.thickness_m"),
-        ({"kind": "coax", "eps_r": 2.1, "outer_diameter_m": -1.0}, "medium.coax.outer_diameter_m"),
-        ({"kind": "stripline", "eps_r": 2.2, "ground_spacing_m": 1e-3, "thickness_m": 0.6e-3}, "medium.stripline"),
+        (MICROSTRIP | {"eps_r": 0.5}, "medium.eps_r"),
+        (MICROSTRIP | {"height_m": 0.0}, "medium.height_m"),
+        (MICROSTRIP | {"thickness_m": -1e-6}, "medium.thickness_m"),
+        ({"kind": "coax", "eps_r": 2.1, "outer_diameter_m": -1.0}, "medium.outer_diameter_m"),
+        ({"kind": "stripline", "eps_r": 2.2, "ground_spacing_m": 1e-3, "thickness_m": 0.6e-3}, "medium"),
         ({"kind": "waveguide", "eps_r": 1.0}, "medium"),
     ],
 )

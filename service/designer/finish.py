@@ -1,6 +1,15 @@
-"""Check a synthesized design by the exact cascade and assemble the response."""
+"""Check synthesized designs by the exact cascade and assemble their responses.
+
+`finish_many` checks a whole list of designs at once: lines of equal shape are stacked so that
+the cascade runs over designs x frequencies x sections in one go.
+"""
 
 from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
 
 from service import design
 from service.designer.lines import DesignOptions, Target, checked_blocks, line_for, quarter_wave_m
@@ -11,11 +20,29 @@ from service.designer.reporting import (
     spec_warnings,
 )
 from service.refinement import refine_minimax
-from service.schemas.results import PredictedFigures, RefinementFigures, TransformerDesign
+from service.schemas.results import (
+    PredictedFigures,
+    RefinementFigures,
+    ResponseCurve,
+    TransformerDesign,
+    VerifiedFigures,
+)
 from service.schemas.transformers import MatchRequest
-from service.verification import verified_figures
+from service.verification import LineCascade, response_curves_many, verified_figures, verified_figures_many
 
 THEORY_METHODS = ("binomial", "chebyshev")  # the methods a request may switch to the exact theory
+
+
+@dataclass(frozen=True)
+class Job:
+    """A synthesized design waiting for its exact check."""
+
+    method: str
+    theory: str
+    request: MatchRequest
+    target: Target
+    synthesized: design.SteppedDesign
+    notes: tuple[str, ...] = ()
 
 
 def finish(
@@ -27,28 +54,61 @@ def finish(
     notes: list[str] | None = None,
     options: DesignOptions | None = None,
 ) -> TransformerDesign:
-    """The verified response for a synthesized design (refined first for frequency-dependent loads)."""
+    """The verified response for one synthesized design."""
+    return finish_many([Job(method, theory, request, target, synthesized, tuple(notes or ()))], options)[0]
+
+
+def finish_many(jobs: list[Job], options: DesignOptions | None = None) -> list[TransformerDesign]:
+    """Verified responses for many designs (refined first for frequency-dependent loads)."""
+    options = options or DesignOptions()
+    lines = [
+        line_for(j.request, j.target, j.synthesized.impedances_ohm, j.synthesized.electrical_length_rad) for j in jobs
+    ]
+    starts = np.array([j.request.band.start_hz for j in jobs])
+    stops = np.array([j.request.band.stop_hz for j in jobs])
+    specs = np.array([j.request.spec_reflection for j in jobs])
+    verified = verified_figures_many(lines, starts, stops, specs)
+    refinements: list[RefinementFigures | None] = [None] * len(jobs)
+    for index, job in enumerate(jobs):
+        if job.target.load.frequency_dependent:
+            lines[index], refinements[index] = _refine(lines[index], job.request, verified[index])
+            verified[index] = refinements[index].after
+    points = np.array([j.request.points for j in jobs])
+    curves = response_curves_many(lines, starts, stops, points)
+    return [
+        _assemble(job, line, figures, refinement, curve, options)
+        for job, line, figures, refinement, curve in zip(jobs, lines, verified, refinements, curves, strict=True)
+    ]
+
+
+def _refine(line: LineCascade, request: MatchRequest, before: VerifiedFigures) -> tuple[LineCascade, RefinementFigures]:
+    band = request.band
+    refined = refine_minimax(line, band.start_hz, band.stop_hz, quarter_wave_m(line, band.center_hz))
+    after = verified_figures(refined.after, band.start_hz, band.stop_hz, request.spec_reflection)
+    return refined.after, RefinementFigures(before=before, after=after, iterations=refined.iterations)
+
+
+def _assemble(
+    job: Job,
+    line: LineCascade,
+    verified: VerifiedFigures,
+    refinement: RefinementFigures | None,
+    curve: ResponseCurve,
+    options: DesignOptions,
+) -> TransformerDesign:
+    request, target, synthesized, theory = job.request, job.target, job.synthesized, job.theory
     band, spec = request.band, request.spec_reflection
-    line = line_for(request, target, synthesized.impedances_ohm, synthesized.electrical_length_rad)
-    verified = verified_figures(line, band.start_hz, band.stop_hz, spec)
-    refinement = None
-    if target.load.frequency_dependent:
-        refined = refine_minimax(line, band.start_hz, band.stop_hz, quarter_wave_m(line, band.center_hz))
-        line = refined.after
-        after = verified_figures(line, band.start_hz, band.stop_hz, spec)
-        refinement = RefinementFigures(before=verified, after=after, iterations=refined.iterations)
-        verified = after
     predicted = PredictedFigures(
         max_reflection=synthesized.predicted_max_reflection,
         bandwidth_fraction=synthesized.predicted_bandwidth_fraction,
         covers_band=synthesized.predicted_max_reflection <= spec * (1.0 + 1e-9),
         departure_fraction=_departure(verified.max_reflection, synthesized.predicted_max_reflection),
     )
-    blocks = checked_blocks(line, request, verified, options or DesignOptions())
+    blocks = checked_blocks(line, request, verified, curve, options)
     requested_fraction = (band.stop_hz - band.start_hz) / band.center_hz
-    warnings = [*synthesized.notes, *(notes or []), *blocks.pop("medium_notes")]
+    warnings = [*synthesized.notes, *job.notes, *blocks.pop("medium_notes")]
     warnings += coverage_warnings(spec, requested_fraction, predicted)
-    suggest_exact = theory == design.SMALL_REFLECTION.name and method in THEORY_METHODS
+    suggest_exact = theory == design.SMALL_REFLECTION.name and job.method in THEORY_METHODS
     warnings += spec_warnings(verified, suggest_exact)
     if target.rotation is None and not target.load.frequency_dependent:
         warnings += departure_warnings(predicted, verified, theory, line.medium)
@@ -61,20 +121,20 @@ def finish(
     if target.rotation is not None:
         warnings.append(_rotation_note(request, target))
     return TransformerDesign(
-        method=method, theory=theory, predicted=predicted, refinement=refinement, **blocks, warnings=warnings
+        method=job.method, theory=theory, predicted=predicted, refinement=refinement, **blocks, warnings=warnings
     )
 
 
-def _departure(verified: float, predicted: float) -> float:
-    """verified / predicted - 1, or 0 where both are (numerically) zero."""
+def _departure(verified: float, predicted: float) -> float | None:
+    """verified / predicted - 1; None where the prediction is (numerically) zero."""
     if predicted <= 1e-15:
-        return 0.0 if verified <= 1e-12 else float("inf")
+        return 0.0 if verified <= 1e-12 else None
     return verified / predicted - 1.0
 
 
 def _rotation_note(request: MatchRequest, target: Target) -> str:
     """Tell the user what the last section is for."""
-    degrees = float(target.rotation.electrical_length_rad) * 180.0 / 3.141592653589793
+    degrees = math.degrees(float(target.rotation.electrical_length_rad))
     return (
         f"The last section is {degrees:.4g} degrees of {request.source_ohm:g} ohm line that turns the "
         f"load real ({target.resistance_ohm:.6g} ohm) at the band centre; the transformer matches that."

@@ -16,8 +16,9 @@ DESIGNERS = {
 }
 
 
-def design_item(
-    item: QuarterWaveItem | BinomialItem | ChebyshevItem | TaperItem, options: DesignOptions | None = None
-) -> TransformerDesign:
+Item = QuarterWaveItem | BinomialItem | ChebyshevItem | TaperItem
+
+
+def design_item(item: Item, options: DesignOptions | None = None) -> TransformerDesign:
     """The design of the method the item names."""
     return DESIGNERS[type(item)](item, options)

@@ -13,9 +13,9 @@ from service.errors import UnmeetableRequestError
 from service.loads import CircuitLoad, LoadModel
 from service.media import IdealLine, RealizationError
 from service.network import SPEED_OF_LIGHT_M_PER_S
-from service.schemas.results import BodeFanoFigures, SectionResult, VerifiedFigures
+from service.schemas.results import BodeFanoFigures, ResponseCurve, SectionResult, VerifiedFigures
 from service.schemas.transformers import MatchRequest
-from service.verification import LineCascade, electrical_length_rad, junction_results, response_curve
+from service.verification import LineCascade, electrical_length_rad, junction_results
 
 REAL_TOLERANCE = 1e-12  # |X| / |Z| below which a load counts as resistive
 DEFAULT_MIN_FEATURE_M = 1e-4
@@ -127,7 +127,7 @@ def section_results(line: LineCascade, frequency_hz: float) -> list[SectionResul
 
 
 def checked_blocks(
-    line: LineCascade, request: MatchRequest, verified: VerifiedFigures, options: DesignOptions
+    line: LineCascade, request: MatchRequest, verified: VerifiedFigures, curve: ResponseCurve, options: DesignOptions
 ) -> dict[str, object]:
     """The response blocks every verified result shares, and the medium's own notes."""
     band = request.band
@@ -138,7 +138,7 @@ def checked_blocks(
         "total_length_m": float(np.sum(line.lengths_m)),
         "junctions": junction_results(line, band.center_hz),
         "verified": verified,
-        "response": response_curve(line, band.start_hz, band.stop_hz, request.points),
+        "response": curve,
         "velocity_factor": medium.velocity_factor if isinstance(medium, IdealLine) else None,
         "medium": medium.kind,
         "bode_fano": bode_fano_figures(line.load, request, verified),

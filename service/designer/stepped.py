@@ -3,45 +3,72 @@
 from __future__ import annotations
 
 from collections.abc import Callable
+from dataclasses import dataclass
 
 from service import design
 from service.design.multisection import MAX_SECTIONS, InfeasibleDesignError
-from service.designer.finish import finish
+from service.designer.finish import Job, finish_many
 from service.designer.lines import DesignOptions, Target, target_for
 from service.errors import UnmeetableRequestError
 from service.schemas.results import TransformerDesign
-from service.schemas.transformers import QuarterWaveRequest, TransformerRequest
-
-Synthesis = Callable[[int], design.SteppedDesign]
+from service.schemas.transformers import MatchRequest, QuarterWaveRequest, TransformerRequest
 
 
-def quarter_wave(request: QuarterWaveRequest, options: DesignOptions | None = None) -> TransformerDesign:
+@dataclass(frozen=True)
+class Plan:
+    """How to synthesize one stepped request at any section count."""
+
+    method: str
+    theory: str
+    request: MatchRequest
+    target: Target
+    synthesize: Callable[[int], design.SteppedDesign]
+    count: Callable[[], int]
+    sections: int | None  # as requested; None means: by spec
+
+    def job(self, sections: int, notes: tuple[str, ...] = ()) -> Job:
+        return Job(self.method, self.theory, self.request, self.target, self.synthesize(sections), notes)
+
+    def theory_sections(self) -> int:
+        """The requested count, or the theory's smallest count for the spec."""
+        if self.sections is not None:
+            return self.sections
+        try:
+            return self.count()
+        except InfeasibleDesignError as exc:
+            raise UnmeetableRequestError("max_reflection", str(exc)) from exc
+
+
+def plan_quarter_wave(request: QuarterWaveRequest) -> Plan:
     """One quarter-wave section."""
     target = target_for(request)
-    synthesized = design.quarter_wave(
-        request.source_ohm, target.resistance_ohm, target.edge_angle_rad, request.spec_reflection
-    )
-    return finish("quarter-wave", design.SMALL_REFLECTION.name, request, target, synthesized, options=options)
+
+    def synthesize(_: int) -> design.SteppedDesign:
+        return design.quarter_wave(
+            request.source_ohm, target.resistance_ohm, target.edge_angle_rad, request.spec_reflection
+        )
+
+    return Plan("quarter-wave", design.SMALL_REFLECTION.name, request, target, synthesize, lambda: 1, 1)
 
 
-def binomial(request: TransformerRequest, options: DesignOptions | None = None) -> TransformerDesign:
+def plan_binomial(request: TransformerRequest) -> Plan:
     """Maximally flat design, by section count or by spec."""
     target = target_for(request)
     theory = design.THEORIES[request.theory]
     spec = request.spec_reflection
+    source, load, edge = request.source_ohm, target.resistance_ohm, target.edge_angle_rad
+    return Plan(
+        "binomial",
+        request.theory,
+        request,
+        target,
+        lambda sections: design.binomial(source, load, sections, edge, spec, theory),
+        lambda: design.binomial_sections_for(source, load, edge, spec, theory),
+        request.sections,
+    )
 
-    def synthesize(sections: int) -> design.SteppedDesign:
-        return design.binomial(request.source_ohm, target.resistance_ohm, sections, target.edge_angle_rad, spec, theory)
 
-    def count() -> int:
-        return design.binomial_sections_for(
-            request.source_ohm, target.resistance_ohm, target.edge_angle_rad, spec, theory
-        )
-
-    return _by_count_or_spec("binomial", request, target, synthesize, count, options)
-
-
-def chebyshev(request: TransformerRequest, options: DesignOptions | None = None) -> TransformerDesign:
+def plan_chebyshev(request: TransformerRequest) -> Plan:
     """Equal-ripple design.
 
     Sections only: ripple set by the band. Spec only: smallest N, edges on the band limits.
@@ -50,46 +77,54 @@ def chebyshev(request: TransformerRequest, options: DesignOptions | None = None)
     target = target_for(request)
     theory = design.THEORIES[request.theory]
     ripple = request.max_reflection if request.sections is not None else None
-
-    def synthesize(sections: int) -> design.SteppedDesign:
-        return design.chebyshev(
-            request.source_ohm, target.resistance_ohm, sections, target.edge_angle_rad, ripple, theory
-        )
-
-    def count() -> int:
-        return design.chebyshev_sections_for(
-            request.source_ohm, target.resistance_ohm, target.edge_angle_rad, request.spec_reflection, theory
-        )
-
-    return _by_count_or_spec("chebyshev", request, target, synthesize, count, options)
+    source, load, edge = request.source_ohm, target.resistance_ohm, target.edge_angle_rad
+    return Plan(
+        "chebyshev",
+        request.theory,
+        request,
+        target,
+        lambda sections: design.chebyshev(source, load, sections, edge, ripple, theory),
+        lambda: design.chebyshev_sections_for(source, load, edge, request.spec_reflection, theory),
+        request.sections,
+    )
 
 
-def _by_count_or_spec(
-    method: str,
-    request: TransformerRequest,
-    target: Target,
-    synthesize: Synthesis,
-    count: Callable[[], int],
-    options: DesignOptions | None,
-) -> TransformerDesign:
+def quarter_wave(request: QuarterWaveRequest, options: DesignOptions | None = None) -> TransformerDesign:
+    """One quarter-wave section, checked."""
+    return designed(plan_quarter_wave(request), options)
+
+
+def binomial(request: TransformerRequest, options: DesignOptions | None = None) -> TransformerDesign:
+    """A binomial design, checked."""
+    return designed(plan_binomial(request), options)
+
+
+def chebyshev(request: TransformerRequest, options: DesignOptions | None = None) -> TransformerDesign:
+    """A Chebyshev design, checked."""
+    return designed(plan_chebyshev(request), options)
+
+
+def designed(plan: Plan, options: DesignOptions | None, first: TransformerDesign | None = None) -> TransformerDesign:
     """The design at the requested N, or the smallest N that the exact cascade says meets the spec.
 
-    The theory's N is tried first; where the exact cascade misses the spec, N grows until it
-    meets it (or the section limit is reached), and a warning says so.
+    The theory's N is tried first (or `first`, its already-checked design); where the exact
+    cascade misses the spec, N grows until it meets it (or the section limit is reached), and a
+    warning says so.
     """
-    if request.sections is not None:
-        return finish(method, request.theory, request, target, synthesize(request.sections), options=options)
-    try:
-        theory_sections = count()
-    except InfeasibleDesignError as exc:
-        raise UnmeetableRequestError("max_reflection", str(exc)) from exc
-    result = finish(method, request.theory, request, target, synthesize(theory_sections), options=options)
+    theory_sections = plan.theory_sections()
+    result = first or _finished(plan, theory_sections, (), options)
+    if plan.sections is not None:
+        return result
     sections = theory_sections
     while not result.verified.meets_spec and sections < MAX_SECTIONS:
         sections += 1
         note = (
-            f"The {request.theory} theory asks for {theory_sections} sections; the exact cascade "
+            f"The {plan.theory} theory asks for {theory_sections} sections; the exact cascade "
             f"needed {sections} to meet the spec."
         )
-        result = finish(method, request.theory, request, target, synthesize(sections), [note], options)
+        result = _finished(plan, sections, (note,), options)
     return result
+
+
+def _finished(plan: Plan, sections: int, notes: tuple[str, ...], options: DesignOptions | None) -> TransformerDesign:
+    return finish_many([plan.job(sections, notes)], options)[0]

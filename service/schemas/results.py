@@ -35,7 +35,7 @@ class PredictedFigures(BaseModel):
         )
     )
     covers_band: bool = Field(description="Whether the theory keeps the spec over the whole band.")
-    departure_fraction: float = Field(
+    departure_fraction: float | None = Field(
         description=(
             "How far the exact cascade's worst reflection departs from this prediction: verified / predicted - 1."
         )

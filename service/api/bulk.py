@@ -1,0 +1,63 @@
+"""Batches and sweeps of designs."""
+
+import json
+from collections.abc import Iterator
+from typing import Annotated
+
+from fastapi import APIRouter, Body
+from fastapi.responses import Response, StreamingResponse
+
+from service.api.documented import error_responses
+from service.designer.bulk import design_items, sweep_results, sweep_size
+from service.errors import UnmeetableRequestError
+from service.examples import request_examples
+from service.formats.csv_table import sweep_csv_lines
+from service.schemas.bulk import BatchRequest, BatchResult, SweepRequest, SweepResult
+from service.settings import Settings
+
+NDJSON_TYPE = "application/x-ndjson"
+
+
+def build_router(settings: Settings) -> APIRouter:
+    """The /v1/batch and /v1/sweeps routes."""
+    options = settings.design_options()
+    router = APIRouter(prefix="/v1", tags=["bulk"], responses=error_responses())
+    batch_examples = request_examples(settings.examples_dir, "batch")
+    sweep_examples = request_examples(settings.examples_dir, "sweeps")
+
+    @router.post("/batch", response_model=BatchResult, summary="Many designs in one request")
+    def batch(request: Annotated[BatchRequest, Body(openapi_examples=batch_examples)]) -> BatchResult:
+        """Each item is validated and designed on its own; results come back in order, errors at their index."""
+        if len(request.requests) > settings.max_batch_items:
+            raise UnmeetableRequestError(
+                "requests", f"at most {settings.max_batch_items} items per batch; this one has {len(request.requests)}"
+            )
+        return BatchResult(results=design_items(request.requests, request.include_curves, options))
+
+    @router.post(
+        "/sweeps",
+        response_model=SweepResult,
+        summary="A grid of designs",
+        responses={200: {"content": {"text/csv": {}, NDJSON_TYPE: {}}, "description": "The sweep's designs."}},
+    )
+    def sweep(request: Annotated[SweepRequest, Body(openapi_examples=sweep_examples)]) -> SweepResult | Response:
+        """Expand the grid on the server and design every point, as JSON, CSV or streamed NDJSON."""
+        total = sweep_size(request)
+        if total > settings.max_sweep_designs:
+            raise UnmeetableRequestError(
+                "vary", f"the grid holds {total} designs; at most {settings.max_sweep_designs}"
+            )
+        parameters = list(request.vary)
+        if request.output == "json":
+            return SweepResult(total=total, parameters=parameters, results=list(sweep_results(request, options)))
+        if request.output == "csv":
+            lines = sweep_csv_lines(parameters, sweep_results(request, options))
+            return StreamingResponse(lines, media_type="text/csv")
+        return StreamingResponse(_ndjson(total, parameters, request), media_type=NDJSON_TYPE)
+
+    def _ndjson(total: int, parameters: list[str], request: SweepRequest) -> Iterator[str]:
+        yield json.dumps({"total": total, "parameters": parameters}) + "\n"
+        for result in sweep_results(request, options):
+            yield result.model_dump_json(exclude_none=True) + "\n"
+
+    return router

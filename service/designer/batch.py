@@ -1,0 +1,37 @@
+"""Many designs at once: synthesize each, check them all in stacked cascades, then fix up the few
+spec-driven designs whose exact check asks for more sections (or tapers, which need their own loop)."""
+
+from __future__ import annotations
+
+from service.designer.finish import finish_many
+from service.designer.items import Item, design_item
+from service.designer.lines import DesignOptions
+from service.designer.stepped import Plan, designed, plan_binomial, plan_chebyshev, plan_quarter_wave
+from service.errors import UnmeetableRequestError
+from service.schemas.items import BinomialItem, ChebyshevItem, QuarterWaveItem
+from service.schemas.results import TransformerDesign
+
+PLANNERS = {QuarterWaveItem: plan_quarter_wave, BinomialItem: plan_binomial, ChebyshevItem: plan_chebyshev}
+
+Outcome = TransformerDesign | UnmeetableRequestError
+
+
+def design_batch(items: list[Item], options: DesignOptions | None = None) -> list[Outcome]:
+    """The design (or the reason it cannot be made) of every item, in order."""
+    outcomes: list[Outcome | None] = [None] * len(items)
+    plans: list[tuple[int, Plan]] = []
+    jobs = []
+    for index, item in enumerate(items):
+        try:
+            planner = PLANNERS.get(type(item))
+            if planner is None:
+                outcomes[index] = design_item(item, options)
+                continue
+            plan = planner(item)
+            jobs.append(plan.job(plan.theory_sections()))
+            plans.append((index, plan))
+        except UnmeetableRequestError as exc:
+            outcomes[index] = exc
+    for (index, plan), first in zip(plans, finish_many(jobs, options), strict=True):
+        outcomes[index] = designed(plan, options, first)
+    return outcomes

@@ -1,0 +1,99 @@
+"""Batches of design requests and parameter sweeps."""
+
+from __future__ import annotations
+
+from typing import Annotated, Any, Literal
+
+from pydantic import BaseModel, Field, model_validator
+
+from service.schemas.common import StrictModel
+from service.schemas.errors import ErrorBody
+from service.schemas.results import PredictedFigures, ResponseCurve, SectionResult, VerifiedFigures
+
+DEFAULT_MAX_BATCH_ITEMS = 10_000
+DEFAULT_MAX_SWEEP_DESIGNS = 100_000
+
+
+class BatchRequest(StrictModel):
+    """Design requests, each naming its `method`; each is checked on its own, so one bad item never sinks the rest."""
+
+    requests: list[Any] = Field(description="Design requests with a `method` field, as for /v1/drawings.")
+    include_curves: bool = Field(False, description="Add each design's response curve to its summary.")
+
+
+class DesignSummary(BaseModel):
+    """The parts of a design a table needs; the curve only on request."""
+
+    method: str
+    theory: str
+    profile: str | None
+    medium: str
+    center_hz: float
+    total_length_m: float
+    sections: list[SectionResult]
+    predicted: PredictedFigures
+    verified: VerifiedFigures
+    warnings: list[str]
+    response: ResponseCurve | None = None
+
+
+class ItemResult(BaseModel):
+    """One item's outcome: a design summary (status 200) or an error in the API's error shape (4xx)."""
+
+    index: int
+    status: int
+    design: DesignSummary | None = None
+    error: ErrorBody | None = None
+    parameters: dict[str, Any] | None = Field(None, description="For sweeps: the swept values of this design.")
+
+
+class BatchResult(BaseModel):
+    """Every item's outcome, in the order of the request."""
+
+    results: list[ItemResult]
+
+
+class ValueRange(StrictModel):
+    """`count` values from `start` to `stop`, both included, evenly spaced (or geometrically with `log`)."""
+
+    start: float
+    stop: float
+    count: int = Field(ge=1, le=DEFAULT_MAX_SWEEP_DESIGNS)
+    spacing: Literal["linear", "log"] = "linear"
+
+    @model_validator(mode="after")
+    def _positive_for_log(self) -> ValueRange:
+        if self.spacing == "log" and (self.start <= 0 or self.stop <= 0):
+            raise ValueError("a log range needs positive start and stop")
+        return self
+
+
+SweepValues = Annotated[list[Any] | ValueRange, Field(description="A list of values, or a range of numbers.")]
+
+
+class SweepRequest(StrictModel):
+    """A grid of designs: `base` is one design request (with `method`); `vary` maps dotted field paths
+    (e.g. "load.resistance_ohm", "sections", "method", "theory", "band", "medium") to their values.
+    The grid is every combination, expanded on the server, in the order the keys are given."""
+
+    base: dict[str, Any]
+    vary: dict[str, SweepValues] = Field(min_length=1)
+    output: Literal["json", "csv", "ndjson"] = Field(
+        "json", description="json: one document; csv: a table; ndjson: one line per design, streamed."
+    )
+    include_curves: bool = False
+
+    @model_validator(mode="after")
+    def _non_empty_lists(self) -> SweepRequest:
+        for key, values in self.vary.items():
+            if isinstance(values, list) and not values:
+                raise ValueError(f"vary.{key} has no values")
+        return self
+
+
+class SweepResult(BaseModel):
+    """The whole sweep as one JSON document."""
+
+    total: int
+    parameters: list[str]
+    results: list[ItemResult]

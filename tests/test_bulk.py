@@ -1,0 +1,155 @@
+"""Batches and sweeps: equal to single requests, errors at their index, limits, and the formats."""
+
+import csv
+import io
+import json
+
+import pytest
+from fastapi.testclient import TestClient
+
+from service.app import create_app
+from service.settings import Settings
+
+MICROSTRIP = {"kind": "microstrip", "eps_r": 3.66, "height_m": 0.508e-3, "thickness_m": 35e-6}
+BAND = {"start_hz": 1e9, "stop_hz": 3e9}
+ITEMS = [
+    {"method": "chebyshev", "source_ohm": 50, "load": {"resistance_ohm": 100}, "band": BAND, "sections": 3},
+    {
+        "method": "chebyshev",
+        "source_ohm": 50,
+        "load": {"resistance_ohm": 20},
+        "band": BAND,
+        "sections": 3,
+        "theory": "exact",
+    },
+    {"method": "binomial", "source_ohm": 75, "load": {"resistance_ohm": 300}, "band": BAND, "max_reflection": 0.05},
+    {"method": "quarter-wave", "source_ohm": 50, "load": {"resistance_ohm": 30, "reactance_ohm": 10}, "band": BAND},
+    {
+        "method": "chebyshev",
+        "source_ohm": 50,
+        "load": {"resistance_ohm": 25},
+        "band": BAND,
+        "sections": 2,
+        "medium": MICROSTRIP,
+    },
+    {"method": "taper", "source_ohm": 50, "load": {"resistance_ohm": 150}, "band": BAND, "max_reflection": 0.05},
+    {
+        "method": "binomial",
+        "source_ohm": 50,
+        "load": {"circuit": {"kind": "series-rl", "resistance_ohm": 20, "inductance_h": 1e-9}},
+        "band": BAND,
+        "sections": 2,
+    },
+    {
+        "method": "chebyshev",
+        "source_ohm": 50,
+        "load": {"resistance_ohm": 12},
+        "band": {"start_hz": 2e9, "stop_hz": 2.4e9},
+        "sections": 3,
+        "points": 11,
+    },
+]
+
+
+def single(client, item):
+    body = {k: v for k, v in item.items() if k != "method"}
+    response = client.post(f"/v1/transformers/{item['method']}", json=body)
+    assert response.status_code == 200, response.text
+    return response.json()
+
+
+def test_batch_equals_single_requests_item_by_item(client):
+    response = client.post("/v1/batch", json={"requests": ITEMS, "include_curves": True})
+    assert response.status_code == 200
+    results = response.json()["results"]
+    assert [r["index"] for r in results] == list(range(len(ITEMS)))
+    for item, result in zip(ITEMS, results, strict=True):
+        alone = single(client, item)
+        batched = result["design"]
+        assert result["status"] == 200
+        assert batched["sections"] == alone["sections"]
+        assert batched["verified"] == alone["verified"]
+        assert batched["predicted"] == alone["predicted"]
+        assert batched["warnings"] == alone["warnings"]
+        assert batched["response"] == alone["response"]
+
+
+def test_summaries_leave_out_curves_by_default(client):
+    result = client.post("/v1/batch", json={"requests": ITEMS[:1]}).json()["results"][0]
+    assert result["design"]["response"] is None
+
+
+def test_a_bad_item_does_not_sink_the_batch(client):
+    bad = dict(ITEMS[0], band={"start_hz": 3e9, "stop_hz": 1e9})
+    unmeetable = dict(ITEMS[2], band={"start_hz": 1e6, "stop_hz": 3.999e9}, max_reflection=1e-4)
+    requests = [ITEMS[0], bad, 42, {"method": "stub"}, unmeetable, ITEMS[1]]
+    results = client.post("/v1/batch", json={"requests": requests}).json()["results"]
+    assert [r["status"] for r in results] == [200, 422, 422, 422, 422, 200]
+    assert results[1]["error"]["problems"][0]["field"] == "band.stop_hz"
+    assert results[4]["error"]["problems"][0]["field"] == "max_reflection"
+    assert all(r["error"]["status"] == 422 and r["error"]["problems"] for r in results[1:5])
+
+
+def test_batch_item_limit_is_a_setting():
+    limited = TestClient(create_app(Settings(max_batch_items=3)))
+    response = limited.post("/v1/batch", json={"requests": ITEMS[:4]})
+    assert response.status_code == 422
+    assert response.json()["problems"][0]["field"] == "requests"
+    assert limited.post("/v1/batch", json={"requests": ITEMS[:3]}).status_code == 200
+
+
+SWEEP = {
+    "base": {"method": "chebyshev", "source_ohm": 50, "load": {"resistance_ohm": 10}, "band": BAND, "points": 5},
+    "vary": {
+        "load.resistance_ohm": {"start": 10, "stop": 40, "count": 4},
+        "sections": [1, 2, 3],
+        "theory": ["small-reflection", "exact"],
+    },
+}
+
+
+def test_sweep_expands_every_combination_in_order(client):
+    body = client.post("/v1/sweeps", json=SWEEP).json()
+    assert body["total"] == 4 * 3 * 2 and len(body["results"]) == 24
+    assert body["parameters"] == ["load.resistance_ohm", "sections", "theory"]
+    first, last = body["results"][0], body["results"][-1]
+    assert first["parameters"] == {"load.resistance_ohm": 10.0, "sections": 1, "theory": "small-reflection"}
+    assert last["parameters"] == {"load.resistance_ohm": 40.0, "sections": 3, "theory": "exact"}
+    assert len(last["design"]["sections"]) == 3 and last["design"]["theory"] == "exact"
+
+
+def test_log_range():
+    from service.designer.bulk import sweep_values
+    from service.schemas.bulk import ValueRange
+
+    assert sweep_values(ValueRange(start=1, stop=100, count=3, spacing="log")) == pytest.approx([1, 10, 100])
+
+
+def test_ndjson_streams_a_total_then_one_line_per_design(client):
+    response = client.post("/v1/sweeps", json=SWEEP | {"output": "ndjson"})
+    assert response.headers["content-type"].startswith("application/x-ndjson")
+    lines = [json.loads(line) for line in response.text.splitlines()]
+    assert lines[0]["total"] == 24 and len(lines) == 25
+    assert [line["index"] for line in lines[1:]] == list(range(24))
+
+
+def test_csv_sweep_parses(client):
+    response = client.post("/v1/sweeps", json=SWEEP | {"output": "csv"})
+    rows = list(csv.DictReader(io.StringIO(response.text)))
+    assert len(rows) == 24
+    assert rows[5]["sections"] == "3" and rows[5]["section_count"] == "3"
+    assert all(float(r["max_reflection"]) > 0 for r in rows)
+
+
+def test_sweep_with_bad_points_reports_them_in_place(client):
+    sweep = SWEEP | {"vary": {"load.resistance_ohm": [20, -5, 30]}}
+    results = client.post("/v1/sweeps", json=sweep).json()["results"]
+    assert [r["status"] for r in results] == [200, 422, 200]
+    assert results[1]["error"]["problems"][0]["field"] == "load.resistance_ohm"
+
+
+def test_sweep_grid_limit_is_a_setting():
+    limited = TestClient(create_app(Settings(max_sweep_designs=10)))
+    response = limited.post("/v1/sweeps", json=SWEEP)
+    assert response.status_code == 422
+    assert response.json()["problems"][0]["field"] == "vary"
