@@ -44,14 +44,9 @@ def cascade(
     shape = np.broadcast_shapes(impedances.shape, lengths.shape)
     impedances = np.broadcast_to(impedances, shape)
     if losses_np is None:
-        cosines = np.cos(lengths)
-        sines = 1j * np.sin(lengths)
-    else:
-        gamma_l = np.asarray(losses_np) + 1j * lengths
-        cosines = np.cosh(gamma_l)
-        sines = np.sinh(gamma_l)
-    cosines = np.broadcast_to(cosines, shape)
-    sines = np.broadcast_to(sines, shape)
+        return _lossless_cascade(impedances, np.broadcast_to(lengths, shape))
+    gamma_l = np.broadcast_to(np.asarray(losses_np) + 1j * lengths, shape)
+    cosines, sines = np.cosh(gamma_l), np.sinh(gamma_l)
     a = np.ones(shape[:-1], dtype=complex)
     b = np.zeros(shape[:-1], dtype=complex)
     c = np.zeros(shape[:-1], dtype=complex)
@@ -67,6 +62,28 @@ def cascade(
             c * sin_t * z + d * cos_t,
         )
     return Abcd(a, b, c, d)
+
+
+def _lossless_cascade(impedances: np.ndarray, lengths: np.ndarray) -> Abcd:
+    """The lossless product in real arithmetic.
+
+    A lossless line's matrix is [[cos, j Z sin], [j sin / Z, cos]]; products of such matrices keep
+    A and D real and B and C imaginary, so only the real numbers a, b/j, c/j, d are carried.
+    """
+    shape = lengths.shape[:-1]
+    a, b, c, d = np.ones(shape), np.zeros(shape), np.zeros(shape), np.ones(shape)
+    cosines, sines = np.cos(lengths), np.sin(lengths)
+    for index in range(lengths.shape[-1]):
+        z = impedances[..., index]
+        cos_t = cosines[..., index]
+        sin_t = sines[..., index]
+        a, b, c, d = (
+            a * cos_t - b * sin_t / z,
+            a * sin_t * z + b * cos_t,
+            c * cos_t + d * sin_t / z,
+            d * cos_t - c * sin_t * z,
+        )
+    return Abcd(a + 0j, 1j * b, 1j * c, d + 0j)
 
 
 def transducer_gain(network: Abcd, source_ohm: float, load_ohm: np.ndarray) -> np.ndarray:

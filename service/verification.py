@@ -16,9 +16,9 @@ from service.loads import FixedLoad, LoadModel
 from service.media import Medium
 from service.schemas.results import JunctionResult, ResponseCurve, VerifiedFigures
 
-MIN_CHECK_POINTS = 2001
+MIN_CHECK_POINTS = 257
 MAX_CHECK_POINTS = 20001
-CHECK_POINTS_PER_LOBE = 32
+CHECK_POINTS_PER_LOBE = 48
 REFINE_POINTS = 129
 RETURN_LOSS_CAP_DB = 300.0
 C0 = network.SPEED_OF_LIGHT_M_PER_S

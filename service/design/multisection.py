@@ -12,7 +12,6 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from numpy.polynomial import chebyshev as cheb
 from scipy.special import comb
 
 from service.design.stepped import SteppedDesign, fraction_from_edge_angle, load_reflection
@@ -91,19 +90,29 @@ def binomial_sections_for(
 def chebyshev_weights(sections: int, scale: float) -> np.ndarray:
     """Junction weights of T_N(scale cos theta), n = 0..N, from its cos((N-2n) theta) terms.
 
-    T_N(scale x) is expanded into powers of x and re-expressed as a Chebyshev series in x,
-    because cos(m theta) = T_m(cos theta). The coefficient b_m of cos(m theta) belongs half to
-    junction n and half to junction N-n (m = N - 2n), except the middle one for even N.
+    T_N(scale x) is a polynomial of degree N in x, so its Chebyshev series b_m (the coefficients of
+    cos(m theta), since cos(m theta) = T_m(cos theta)) follows exactly from its values at the N+1
+    Chebyshev-Gauss nodes by the discrete cosine sum. Coefficient b_m belongs half to junction n
+    and half to junction N-n (m = N - 2n), except the middle one for even N.
     """
-    unit = np.zeros(sections + 1)
-    unit[-1] = 1.0
-    power = cheb.cheb2poly(unit) * scale ** np.arange(sections + 1)
-    series = cheb.poly2cheb(power)
-    orders = np.abs(sections - 2 * np.arange(sections + 1))
+    count = sections + 1
+    nodes = math.pi * (np.arange(count) + 0.5) / count
+    values = chebyshev_values(sections, scale * np.cos(nodes))
+    series = 2.0 / count * np.cos(np.outer(np.arange(count), nodes)) @ values
+    series[0] *= 0.5
+    orders = np.abs(sections - 2 * np.arange(count))
     weights = series[orders] / 2.0
     if sections % 2 == 0:
         weights[sections // 2] *= 2.0
     return weights
+
+
+def chebyshev_values(sections: int, y: np.ndarray) -> np.ndarray:
+    """T_N(y) for any real y: cos(N acos y) inside [-1, 1], +-cosh(N acosh |y|) outside."""
+    inside = np.abs(y) <= 1.0
+    outside = np.cosh(sections * np.arccosh(np.maximum(np.abs(y), 1.0)))
+    sign = np.where(y < 0.0, (-1.0) ** sections, 1.0)
+    return np.where(inside, np.cos(sections * np.arccos(np.clip(y, -1.0, 1.0))), sign * outside)
 
 
 def chebyshev_peak(sections: int, argument: float) -> float:

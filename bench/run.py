@@ -1,0 +1,202 @@
+"""Stepline benchmarks: every figure is a ratio or a measurement taken side by side in this run.
+
+Run with:  python bench/run.py   (needs the test extra: pip install -e '.[test]')
+
+1. The exact cascade against scikit-rf's network cascade: 8 ideal sections, 1001 points.
+2. A design endpoint against the trivial health endpoint of the same server, same load.
+3. One batch of 500 designs against 500 single requests.
+4. A streamed NDJSON sweep of 1,000 and of 10,000 designs: wall time and the server's peak memory.
+
+Servers are started on 127.0.0.1 only, and every load loop is bounded in count.
+"""
+
+from __future__ import annotations
+
+import os
+import platform
+import socket
+import subprocess
+import sys
+import time
+import timeit
+from concurrent.futures import ThreadPoolExecutor
+from contextlib import contextmanager
+
+import httpx
+import numpy as np
+
+C0 = 299_792_458.0
+DESIGN_BODY = {
+    "source_ohm": 50,
+    "load": {"resistance_ohm": 20},
+    "band": {"start_hz": 2e9, "stop_hz": 4e9},
+    "sections": 3,
+    "theory": "exact",
+    "points": 101,
+}
+
+
+def cascade_against_scikit_rf() -> None:
+    import skrf
+    from skrf.media import DefinedGammaZ0
+
+    from service import network
+
+    rng = np.random.default_rng(5)
+    impedances, lengths = rng.uniform(20, 120, 8), rng.uniform(0.01, 0.05, 8)
+    frequency = skrf.Frequency(1, 3, 1001, unit="GHz")
+    beta = 2 * np.pi * frequency.f / C0
+
+    def ours() -> np.ndarray:
+        abcd = network.cascade(impedances, network.electrical_length_rad(lengths, frequency.f, 1.0))
+        return network.s_parameters(abcd, 50.0, 50.0)[0]
+
+    def theirs() -> np.ndarray:
+        lines = [
+            DefinedGammaZ0(frequency, z0_port=50, z0=z, gamma=1j * beta).line(d, "m")
+            for z, d in zip(impedances, lengths, strict=True)
+        ]
+        return skrf.network.cascade_list(lines).s[:, 0, 0]
+
+    ours_s = min(timeit.repeat(ours, number=20, repeat=5)) / 20
+    theirs_s = min(timeit.repeat(theirs, number=3, repeat=3)) / 3
+    difference = float(np.max(np.abs(ours() - theirs())))
+    print("1. cascade, 8 ideal sections x 1001 points")
+    print(
+        f"   ours {ours_s * 1e6:.1f} us, scikit-rf {theirs_s * 1e6:.1f} us: "
+        f"{theirs_s / ours_s:.1f}x faster (target >= 50x)"
+    )
+    print(f"   largest |S11| difference {difference:.2e} (target 1e-12; scikit-rf's own S<->T rounding reaches ~1e-11)")
+
+
+def free_port() -> int:
+    with socket.socket() as probe:
+        probe.bind(("127.0.0.1", 0))
+        return probe.getsockname()[1]
+
+
+@contextmanager
+def server():
+    port = free_port()
+    process = subprocess.Popen(
+        [
+            sys.executable,
+            "-m",
+            "uvicorn",
+            "service.app:app",
+            "--host",
+            "127.0.0.1",
+            "--port",
+            str(port),
+            "--log-level",
+            "warning",
+        ],
+        stdout=subprocess.DEVNULL,
+    )
+    base = f"http://127.0.0.1:{port}"
+    deadline = time.monotonic() + 30
+    while time.monotonic() < deadline:
+        try:
+            if httpx.get(base + "/v1/health", timeout=1).status_code == 200:
+                break
+        except httpx.HTTPError:
+            time.sleep(0.1)
+    try:
+        yield base, process.pid
+    finally:
+        process.terminate()
+        process.wait(timeout=10)
+
+
+def peak_memory_mib(pid: int) -> float:
+    with open(f"/proc/{pid}/status") as status:
+        for line in status:
+            if line.startswith("VmHWM:"):
+                return int(line.split()[1]) / 1024
+    return float("nan")
+
+
+def throughput(base: str, method: str, path: str, body: dict | None, requests: int, concurrency: int) -> float:
+    with httpx.Client(base_url=base, timeout=30) as client:
+
+        def one(_: int) -> int:
+            response = client.request(method, path, json=body)
+            return response.status_code
+
+        start = time.perf_counter()
+        with ThreadPoolExecutor(concurrency) as pool:
+            codes = list(pool.map(one, range(requests)))
+        elapsed = time.perf_counter() - start
+    assert all(code == 200 for code in codes), set(codes)
+    return requests / elapsed
+
+
+def endpoints_side_by_side() -> None:
+    with server() as (base, _):
+        throughput(base, "GET", "/v1/health", None, 100, 8)  # warm up
+        trivial = throughput(base, "GET", "/v1/health", None, 1000, 8)
+        design = throughput(base, "POST", "/v1/transformers/chebyshev", DESIGN_BODY, 1000, 8)
+    print("2. design endpoint against the health endpoint, 1000 requests each at 8-way concurrency")
+    print(
+        f"   health {trivial:.0f} req/s, chebyshev design {design:.0f} req/s: "
+        f"ratio {design / trivial:.2f} (target >= 0.7)"
+    )
+
+
+def batch_against_singles() -> None:
+    items = [DESIGN_BODY | {"method": "chebyshev", "load": {"resistance_ohm": 10 + 0.1 * i}} for i in range(500)]
+    with server() as (base, _), httpx.Client(base_url=base, timeout=120) as client:
+        client.post("/v1/batch", json={"requests": items[:10]})
+        start = time.perf_counter()
+        for item in items:
+            assert (
+                client.post(
+                    "/v1/transformers/chebyshev", json={k: v for k, v in item.items() if k != "method"}
+                ).status_code
+                == 200
+            )
+        singles = time.perf_counter() - start
+        start = time.perf_counter()
+        assert client.post("/v1/batch", json={"requests": items}).status_code == 200
+        batch = time.perf_counter() - start
+    print("3. 500 designs: one batch against 500 sequential single requests")
+    print(f"   singles {singles:.2f} s, batch {batch:.2f} s: batch {singles / batch:.1f}x cheaper (target >= 10x)")
+
+
+def streamed_sweeps() -> None:
+    print("4. streamed NDJSON sweeps (a fresh server each)")
+    for count in (1000, 10000):
+        sweep = {
+            "base": DESIGN_BODY | {"method": "chebyshev", "points": 21},
+            "vary": {"load.resistance_ohm": {"start": 5, "stop": 45, "count": count // 4}, "sections": [1, 2, 3, 4]},
+            "output": "ndjson",
+        }
+        with server() as (base, pid), httpx.Client(base_url=base, timeout=600) as client:
+            before = peak_memory_mib(pid)
+            start = time.perf_counter()
+            lines = 0
+            with client.stream("POST", "/v1/sweeps", json=sweep) as response:
+                for _ in response.iter_lines():
+                    lines += 1
+            elapsed = time.perf_counter() - start
+            peak = peak_memory_mib(pid)
+        assert lines == count + 1
+        print(
+            f"   {count:>6} designs: {elapsed:.2f} s ({count / elapsed:.0f} designs/s), "
+            f"server peak RSS {peak:.0f} MiB (idle {before:.0f} MiB)"
+        )
+
+
+def main() -> None:
+    print(
+        f"Stepline benchmark on {platform.processor() or platform.machine()}, {os.cpu_count()} cores, "
+        f"Python {platform.python_version()}"
+    )
+    cascade_against_scikit_rf()
+    endpoints_side_by_side()
+    batch_against_singles()
+    streamed_sweeps()
+
+
+if __name__ == "__main__":
+    main()
