@@ -4,10 +4,12 @@ from __future__ import annotations
 
 from fastapi import FastAPI
 from fastapi.middleware.cors import CORSMiddleware
+from fastapi.staticfiles import StaticFiles
 
 from service import __version__
-from service.api import bulk, health, networks, realization, transformers
+from service.api import bulk, health, networks, realization, transformers, web
 from service.errors import install_error_handlers
+from service.security import SecurityHeaders
 from service.settings import Settings
 
 DESCRIPTION = (
@@ -34,6 +36,9 @@ def create_app(settings: Settings | None = None) -> FastAPI:
     app.include_router(networks.build_router(settings))
     app.include_router(realization.build_router(settings))
     app.include_router(bulk.build_router(settings))
+    app.include_router(web.router)
+    app.mount("/static", StaticFiles(directory=web.WEB_DIR), name="static")
+    app.add_middleware(SecurityHeaders, frame_ancestors=settings.frame_ancestors)
     return app
 
 

@@ -22,6 +22,7 @@ class Settings:
 
     examples_dir: Path = PROJECT_ROOT / "openapi_examples"
     cors_allow_origins: list[str] = field(default_factory=list)
+    frame_ancestors: list[str] = field(default_factory=list)
     min_feature_m: float = 1e-4
     max_batch_items: int = DEFAULT_MAX_BATCH_ITEMS
     max_sweep_designs: int = DEFAULT_MAX_SWEEP_DESIGNS
@@ -37,6 +38,7 @@ class Settings:
         return cls(
             examples_dir=Path(os.environ.get("STEPLINE_EXAMPLES_DIR", defaults.examples_dir)),
             cors_allow_origins=_origins(os.environ.get("STEPLINE_CORS_ALLOW_ORIGINS", "")),
+            frame_ancestors=_origins(os.environ.get("STEPLINE_FRAME_ANCESTORS", "")),
             min_feature_m=float(os.environ.get("STEPLINE_MIN_FEATURE_M", defaults.min_feature_m)),
             max_batch_items=int(os.environ.get("STEPLINE_MAX_BATCH_ITEMS", defaults.max_batch_items)),
             max_sweep_designs=int(os.environ.get("STEPLINE_MAX_SWEEP_DESIGNS", defaults.max_sweep_designs)),

@@ -2,11 +2,13 @@
 
 Horizontal and vertical scales are set separately so that short, wide and long, narrow sections
 all stay visible; both scales are printed on the drawing. Every section is one <rect> of class
-"section", labelled with its impedance, width (or inner diameter) and length.
+"section" with a tooltip of its impedance, width (or inner diameter) and length, and the same
+words as a label beside it (every k-th section only, when there are more than can be read).
 """
 
 from __future__ import annotations
 
+import math
 from xml.sax.saxutils import escape
 
 from service.schemas.results import AnalysisResult
@@ -16,6 +18,7 @@ DRAW_LEFT, DRAW_RIGHT = 70, 890
 AXIS_Y = 172
 MAX_HALF_HEIGHT_PX = 90
 MIN_HALF_HEIGHT_PX = 1.0
+MAX_VISIBLE_LABELS = 24  # beyond this many sections every k-th is labelled; each keeps its own tooltip
 LABEL_TOP = 290
 COPPER = "#b8733a"
 BOARD = "#20423a"
@@ -51,7 +54,8 @@ def transformer_svg(design: AnalysisResult, title: str, outer_diameter_m: float 
     largest = max([*sizes, outer_diameter_m or 0.0])
     x_scale = (DRAW_RIGHT - DRAW_LEFT) / total
     y_scale = MAX_HALF_HEIGHT_PX / (0.5 * largest)
-    label_step = max(9.0, min(14.0, (DRAW_RIGHT - DRAW_LEFT) / max(len(sections), 1)))
+    labelled_every = math.ceil(len(sections) / MAX_VISIBLE_LABELS)
+    label_step = max(9.0, min(14.0, (DRAW_RIGHT - DRAW_LEFT) / max(len(sections) / labelled_every, 1)))
     height_px = LABEL_TOP + 300
     parts = [
         f'<svg xmlns="http://www.w3.org/2000/svg" width="{WIDTH_PX}" height="{height_px}" '
@@ -83,10 +87,12 @@ def transformer_svg(design: AnalysisResult, title: str, outer_diameter_m: float 
             f'width="{width_px:.3f}" height="{2 * half:.3f}" fill="{COPPER}" stroke="#5b3416" stroke-width="0.5">'
             f"<title>section {index}: {escape(_label(section, kind))}</title></rect>"
         )
-        parts.append(
-            f'<text x="{x + width_px / 2:.2f}" y="{LABEL_TOP}" font-size="{min(11.0, label_step - 1):.1f}" '
-            f'transform="rotate(60 {x + width_px / 2:.2f} {LABEL_TOP})">{index}: {escape(_label(section, kind))}</text>'
-        )
+        if (index - 1) % labelled_every == 0 or index == len(sections):
+            middle = x + width_px / 2
+            parts.append(
+                f'<text x="{middle:.2f}" y="{LABEL_TOP}" font-size="{min(11.0, label_step - 1):.1f}" '
+                f'transform="rotate(60 {middle:.2f} {LABEL_TOP})">{index}: {escape(_label(section, kind))}</text>'
+            )
         x += width_px
     parts.append(
         f'<text x="{DRAW_LEFT}" y="{height_px - 14}" font-size="10">horizontal: 1 px = {1e3 / x_scale:.4g} mm; '
