@@ -9,6 +9,7 @@ from fastapi.staticfiles import StaticFiles
 from service import __version__
 from service.api import bulk, health, networks, realization, transformers, web
 from service.errors import install_error_handlers
+from service.middleware import AccessLog, ApiKey, BodyLimit
 from service.security import SecurityHeaders
 from service.settings import Settings
 
@@ -31,7 +32,7 @@ def create_app(settings: Settings | None = None) -> FastAPI:
             allow_methods=["GET", "POST"],
             allow_headers=["Content-Type", "Authorization"],
         )
-    app.include_router(health.router)
+    app.include_router(health.build_router(settings))
     app.include_router(transformers.build_router(settings))
     app.include_router(networks.build_router(settings))
     app.include_router(realization.build_router(settings))
@@ -39,6 +40,9 @@ def create_app(settings: Settings | None = None) -> FastAPI:
     app.include_router(web.router)
     app.mount("/static", StaticFiles(directory=web.WEB_DIR), name="static")
     app.add_middleware(SecurityHeaders, frame_ancestors=settings.frame_ancestors)
+    app.add_middleware(ApiKey, key=settings.api_key)
+    app.add_middleware(BodyLimit, max_bytes=settings.max_body_bytes)
+    app.add_middleware(AccessLog)
     return app
 
 

@@ -14,6 +14,7 @@ from starlette.exceptions import HTTPException
 from service.schemas.errors import ErrorBody, Problem
 
 logger = logging.getLogger("stepline")
+HTTP_TITLES = {400: "unreadable body", 404: "not found", 405: "method not allowed", 413: "body too large"}
 
 
 class UnmeetableRequestError(Exception):
@@ -89,8 +90,9 @@ def install_error_handlers(app: FastAPI) -> None:
 
     @app.exception_handler(HTTPException)
     async def _http(_: Request, exc: HTTPException) -> JSONResponse:
-        problem = Problem(field="request", message=str(exc.detail))
-        return error_response(exc.status_code, str(exc.detail).lower(), [problem])
+        field = "body" if exc.status_code in (400, 413) else "request"
+        problem = Problem(field=field, message=str(exc.detail))
+        return error_response(exc.status_code, HTTP_TITLES.get(exc.status_code, str(exc.detail).lower()), [problem])
 
     @app.exception_handler(Exception)
     async def _unexpected(_: Request, exc: Exception) -> JSONResponse:

@@ -8,7 +8,8 @@ from fastapi import APIRouter, Body
 from fastapi.responses import Response, StreamingResponse
 
 from service.api.documented import error_responses
-from service.designer.bulk import design_items, sweep_results, sweep_size
+from service.designer.budget import check_budget, design_seconds
+from service.designer.bulk import design_items, sweep_results, sweep_size, sweep_worst_item
 from service.errors import UnmeetableRequestError
 from service.examples import request_examples
 from service.formats.csv_table import sweep_csv_lines
@@ -32,7 +33,9 @@ def build_router(settings: Settings) -> APIRouter:
             raise UnmeetableRequestError(
                 "requests", f"at most {settings.max_batch_items} items per batch; this one has {len(request.requests)}"
             )
-        return BatchResult(results=design_items(request.requests, request.include_curves, options))
+        items = [item for item in request.requests if isinstance(item, dict)]
+        check_budget(sum(design_seconds(item) for item in items), settings, "requests")
+        return BatchResult(results=design_items(request.requests, request.include_curves, options, settings))
 
     @router.post(
         "/sweeps",
@@ -47,17 +50,20 @@ def build_router(settings: Settings) -> APIRouter:
             raise UnmeetableRequestError(
                 "vary", f"the grid holds {total} designs; at most {settings.max_sweep_designs}"
             )
+        check_budget(total * design_seconds(sweep_worst_item(request)), settings, "vary")
         parameters = list(request.vary)
         if request.output == "json":
-            return SweepResult(total=total, parameters=parameters, results=list(sweep_results(request, options)))
+            return SweepResult(
+                total=total, parameters=parameters, results=list(sweep_results(request, options, settings))
+            )
         if request.output == "csv":
-            lines = sweep_csv_lines(parameters, sweep_results(request, options))
+            lines = sweep_csv_lines(parameters, sweep_results(request, options, settings))
             return StreamingResponse(lines, media_type="text/csv")
         return StreamingResponse(_ndjson(total, parameters, request), media_type=NDJSON_TYPE)
 
     def _ndjson(total: int, parameters: list[str], request: SweepRequest) -> Iterator[str]:
         yield json.dumps({"total": total, "parameters": parameters}) + "\n"
-        for result in sweep_results(request, options):
+        for result in sweep_results(request, options, settings):
             yield result.model_dump_json(exclude_none=True) + "\n"
 
     return router

@@ -6,18 +6,24 @@ from fastapi import APIRouter
 from pydantic import BaseModel
 
 from service import __version__
-
-router = APIRouter(tags=["service"])
+from service.settings import Settings
 
 
 class Health(BaseModel):
-    """The service is up, and which version answers."""
+    """The service is up, which version answers, and whether the API needs a key."""
 
     status: str
     version: str
+    key_required: bool
 
 
-@router.get("/v1/health", response_model=Health, summary="Liveness and version")
-def health() -> Health:
-    """Answers while the service can take requests."""
-    return Health(status="ok", version=__version__)
+def build_router(settings: Settings) -> APIRouter:
+    """The health route."""
+    router = APIRouter(tags=["service"])
+
+    @router.get("/v1/health", response_model=Health, summary="Liveness and version")
+    def health() -> Health:
+        """Answers while the service can take requests."""
+        return Health(status="ok", version=__version__, key_required=bool(settings.api_key))
+
+    return router

@@ -12,12 +12,14 @@ import numpy as np
 from pydantic import TypeAdapter, ValidationError
 
 from service.designer.batch import design_batch
+from service.designer.budget import check_sizes
 from service.designer.lines import DesignOptions
 from service.errors import UnmeetableRequestError, validation_problems
 from service.schemas.bulk import DesignSummary, ItemResult, SweepRequest, ValueRange
 from service.schemas.errors import ErrorBody, Problem
 from service.schemas.items import DesignItem
 from service.schemas.results import TransformerDesign
+from service.settings import Settings
 
 ITEM_ADAPTER: TypeAdapter = TypeAdapter(DesignItem)
 CHUNK_ITEMS = 256
@@ -32,26 +34,35 @@ def summary(design: TransformerDesign, include_curves: bool) -> DesignSummary:
 
 
 def design_items(
-    raw_items: list[Any], include_curves: bool, options: DesignOptions, offset: int = 0
+    raw_items: list[Any], include_curves: bool, options: DesignOptions, settings: Settings, offset: int = 0
 ) -> list[ItemResult]:
     """Validate and design each raw item; errors stay with their item."""
     results: list[ItemResult | None] = [None] * len(raw_items)
     valid, positions = [], []
     for position, raw in enumerate(raw_items):
         try:
-            valid.append(ITEM_ADAPTER.validate_python(raw))
+            item = ITEM_ADAPTER.validate_python(raw)
+            check_sizes(raw, settings)
+            valid.append(item)
             positions.append(position)
         except ValidationError as exc:
             error = ErrorBody(status=422, title="invalid request", problems=validation_problems(exc.errors()))
             results[position] = ItemResult(index=offset + position, status=422, error=error)
+        except UnmeetableRequestError as exc:
+            results[position] = _unmeetable(offset + position, exc)
     for position, outcome in zip(positions, design_batch(valid, options), strict=True):
         if isinstance(outcome, UnmeetableRequestError):
-            problem = Problem(field=outcome.field, message=outcome.message)
-            error = ErrorBody(status=422, title="request cannot be met", problems=[problem])
-            results[position] = ItemResult(index=offset + position, status=422, error=error)
+            results[position] = _unmeetable(offset + position, outcome)
         else:
             results[position] = ItemResult(index=offset + position, status=200, design=summary(outcome, include_curves))
     return results
+
+
+def _unmeetable(index: int, exc: UnmeetableRequestError) -> ItemResult:
+    problem = Problem(field=exc.field, message=exc.message)
+    return ItemResult(
+        index=index, status=422, error=ErrorBody(status=422, title="request cannot be met", problems=[problem])
+    )
 
 
 def sweep_values(values: list[Any] | ValueRange) -> list[Any]:
@@ -94,12 +105,23 @@ def sweep_items(request: SweepRequest) -> Iterator[tuple[dict[str, Any], dict[st
         yield parameters, item
 
 
-def sweep_results(request: SweepRequest, options: DesignOptions) -> Iterator[ItemResult]:
+def sweep_worst_item(request: SweepRequest) -> dict[str, Any]:
+    """The base item with the largest swept section count, points and segments: the costliest design."""
+    item = copy.deepcopy(request.base)
+    for key in ("sections", "points", "segments"):
+        values = request.vary.get(key)
+        numbers = [v for v in sweep_values(values) if isinstance(v, int | float)] if values is not None else []
+        if numbers:
+            item[key] = max(numbers)
+    return item
+
+
+def sweep_results(request: SweepRequest, options: DesignOptions, settings: Settings) -> Iterator[ItemResult]:
     """Every design of the sweep, in order, computed a chunk at a time so memory stays flat."""
     grid = sweep_items(request)
     offset = 0
     while chunk := list(itertools.islice(grid, CHUNK_ITEMS)):
-        results = design_items([item for _, item in chunk], request.include_curves, options, offset)
+        results = design_items([item for _, item in chunk], request.include_curves, options, settings, offset)
         for (parameters, _), result in zip(chunk, results, strict=True):
             yield result.model_copy(update={"parameters": parameters})
         offset += len(chunk)

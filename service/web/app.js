@@ -9,6 +9,7 @@ const FIELD_INPUTS = {
   sections: "sections", theory: "theory", profile: "profile", segments: "segments", velocity_factor: "vf",
   medium: "medium", "medium.velocity_factor": "vf", "medium.eps_r": "eps-r", "medium.height_m": "height",
   "medium.ground_spacing_m": "height", "medium.thickness_m": "thickness", "medium.outer_diameter_m": "outer",
+  authorization: "api-key",
 };
 const COLORS = ["#1f6f6a", "#b8733a", "#5a4fa2", "#a8321e", "#3f7f2f", "#8a5a00"];
 const state = { current: null, pinned: [], request: null };
@@ -73,8 +74,22 @@ function showErrors(problems) {
 }
 
 async function post(path, body) {
-  const response = await fetch(path, { method: "POST", headers: { "Content-Type": "application/json" }, body: JSON.stringify(body) });
+  const headers = { "Content-Type": "application/json" };
+  const key = sessionStorage.getItem("stepline-key");
+  if (key) headers.Authorization = `Bearer ${key}`;
+  const response = await fetch(path, { method: "POST", headers, body: JSON.stringify(body) });
   return { ok: response.ok, status: response.status, response };
+}
+
+async function askForKeyIfNeeded() {
+  try {
+    const health = await (await fetch("/v1/health")).json();
+    byId("access").hidden = !health.key_required;
+  } catch (error) {
+    byId("form-error").textContent = `The service did not answer: ${error}`;
+  }
+  byId("api-key").value = sessionStorage.getItem("stepline-key") || "";
+  byId("api-key").addEventListener("change", () => sessionStorage.setItem("stepline-key", value("api-key")));
 }
 
 function labelOf(design) {
@@ -250,7 +265,8 @@ function restoreFromUrl() {
   if (params.get("embed") === "1") document.body.classList.add("embed");
 }
 
-document.addEventListener("DOMContentLoaded", () => {
+document.addEventListener("DOMContentLoaded", async () => {
+  await askForKeyIfNeeded();
   restoreFromUrl();
   showRelevantFields();
   byId("problem").addEventListener("submit", design);

@@ -1,0 +1,134 @@
+"""ASGI middleware: body size limit, optional API key, structured access log with a request id."""
+
+from __future__ import annotations
+
+import hmac
+import json
+import logging
+import re
+import time
+import uuid
+
+from starlette.exceptions import HTTPException
+from starlette.types import ASGIApp, Message, Receive, Scope, Send
+
+from service.schemas.errors import ErrorBody, Problem
+
+access_log = logging.getLogger("stepline.access")
+REQUEST_ID = re.compile(r"^[A-Za-z0-9._-]{1,64}$")
+OPEN_PATHS = ("/v1/health",)
+
+
+async def _send_error(send: Send, status: int, title: str, field: str, message: str, extra: list | None = None) -> None:
+    body = ErrorBody(status=status, title=title, problems=[Problem(field=field, message=message)])
+    payload = body.model_dump_json().encode()
+    headers = [(b"content-type", b"application/json"), (b"content-length", str(len(payload)).encode())]
+    await send({"type": "http.response.start", "status": status, "headers": headers + (extra or [])})
+    await send({"type": "http.response.body", "body": payload})
+
+
+class BodyLimit:
+    """Refuse bodies over the limit with 413, whether announced by Content-Length or streamed."""
+
+    def __init__(self, app: ASGIApp, max_bytes: int) -> None:
+        self.app = app
+        self.max_bytes = max_bytes
+
+    async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
+        if scope["type"] != "http":
+            await self.app(scope, receive, send)
+            return
+        declared = dict(scope.get("headers", [])).get(b"content-length")
+        if declared is not None and declared.isdigit() and int(declared) > self.max_bytes:
+            await self._refuse(send)
+            return
+        received = 0
+        started = False
+
+        async def counted() -> Message:
+            nonlocal received
+            message = await receive()
+            if message["type"] == "http.request":
+                received += len(message.get("body", b""))
+                if received > self.max_bytes:
+                    raise BodyTooLargeError(self.max_bytes)
+            return message
+
+        async def tracking(message: Message) -> None:
+            nonlocal started
+            if message["type"] == "http.response.start":
+                started = True
+            await send(message)
+
+        try:
+            await self.app(scope, counted, tracking)
+        except BodyTooLargeError:
+            if not started:
+                await self._refuse(send)
+
+    async def _refuse(self, send: Send) -> None:
+        await _send_error(send, 413, "body too large", "body", BodyTooLargeError(self.max_bytes).detail)
+
+
+class BodyTooLargeError(HTTPException):
+    """Raised while a streamed body is read; an HTTPException so the framework answers 413 with it."""
+
+    def __init__(self, max_bytes: int) -> None:
+        super().__init__(status_code=413, detail=f"the body may be at most {max_bytes} bytes")
+
+
+class ApiKey:
+    """With a key set, every /v1 path except health needs `Authorization: Bearer <key>`."""
+
+    def __init__(self, app: ASGIApp, key: str) -> None:
+        self.app = app
+        self.key = key.encode()
+
+    async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
+        path = scope.get("path", "")
+        if scope["type"] != "http" or not self.key or not path.startswith("/v1/") or path in OPEN_PATHS:
+            await self.app(scope, receive, send)
+            return
+        given = dict(scope.get("headers", [])).get(b"authorization", b"")
+        scheme, _, token = given.partition(b" ")
+        if scheme.lower() == b"bearer" and hmac.compare_digest(token.strip(), self.key):
+            await self.app(scope, receive, send)
+            return
+        challenge = [(b"www-authenticate", b'Bearer realm="stepline"')]
+        await _send_error(send, 401, "unauthorized", "authorization", "a valid API key is required", challenge)
+
+
+class AccessLog:
+    """One JSON line per request (method, path, status, duration, request id; never the body)."""
+
+    def __init__(self, app: ASGIApp) -> None:
+        self.app = app
+
+    async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
+        if scope["type"] != "http":
+            await self.app(scope, receive, send)
+            return
+        incoming = dict(scope.get("headers", [])).get(b"x-request-id", b"").decode("latin-1")
+        request_id = incoming if REQUEST_ID.match(incoming) else uuid.uuid4().hex
+        start = time.perf_counter()
+        status = 500
+
+        async def stamped(message: Message) -> None:
+            nonlocal status
+            if message["type"] == "http.response.start":
+                status = message["status"]
+                message["headers"] = [*message.get("headers", []), (b"x-request-id", request_id.encode())]
+            await send(message)
+
+        try:
+            await self.app(scope, receive, stamped)
+        finally:
+            record = {
+                "request_id": request_id,
+                "method": scope.get("method"),
+                "path": scope.get("path"),
+                "status": status,
+                "duration_ms": round((time.perf_counter() - start) * 1e3, 3),
+                "client": (scope.get("client") or ("", 0))[0],
+            }
+            access_log.info(json.dumps(record))

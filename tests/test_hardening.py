@@ -1,0 +1,133 @@
+"""Limits, access control, request ids and headers."""
+
+import json
+import logging
+
+import pytest
+from fastapi.testclient import TestClient
+
+from service.app import create_app
+from service.settings import Settings
+from tests.conftest import BASE_REQUEST
+
+DESIGN = "/v1/transformers/chebyshev"
+
+
+def client_with(**settings) -> TestClient:
+    return TestClient(create_app(Settings(**settings)), raise_server_exceptions=False)
+
+
+def test_declared_body_over_the_limit_is_413():
+    client = client_with(max_body_bytes=2000)
+    body = json.dumps(BASE_REQUEST | {"padding": "x" * 3000})
+    response = client.post(DESIGN, content=body, headers={"content-type": "application/json"})
+    assert response.status_code == 413
+    assert response.json()["problems"][0]["field"] == "body"
+
+
+def test_streamed_body_over_the_limit_is_413():
+    client = client_with(max_body_bytes=2000)
+
+    def chunks():
+        yield b'{"source_ohm": 50, "padding": "'
+        for _ in range(10):
+            yield b"x" * 500
+        yield b'"}'
+
+    response = client.post(DESIGN, content=chunks(), headers={"content-type": "application/json"})
+    assert response.status_code == 413
+
+
+@pytest.mark.parametrize(
+    "settings, body, field",
+    [
+        ({"max_points": 100}, BASE_REQUEST | {"points": 101}, "points"),
+        ({"compute_budget_s": 0.0001}, BASE_REQUEST | {"sections": 3}, "body"),
+    ],
+)
+def test_limits_are_settings(settings, body, field):
+    response = client_with(**settings).post(DESIGN, json=body)
+    assert response.status_code == 422
+    assert response.json()["problems"][0]["field"] == field
+
+
+def test_taper_segment_and_trial_limits():
+    client = client_with(max_segments=16, max_trials=100)
+    taper = client.post("/v1/transformers/taper", json=BASE_REQUEST | {"segments": 32})
+    assert taper.status_code == 422 and taper.json()["problems"][0]["field"] == "segments"
+    item = BASE_REQUEST | {
+        "method": "chebyshev",
+        "sections": 2,
+        "medium": {"kind": "coax", "eps_r": 2.1, "outer_diameter_m": 7e-3},
+    }
+    trials = client.post("/v1/yield", json={"design": item, "tolerances": {}, "trials": 101})
+    assert trials.status_code == 422 and trials.json()["problems"][0]["field"] == "trials"
+
+
+def test_sweep_and_batch_budgets():
+    client = client_with(compute_budget_s=0.05)
+    sweep = {
+        "base": BASE_REQUEST | {"method": "binomial", "sections": 4},
+        "vary": {"load.resistance_ohm": {"start": 10, "stop": 90, "count": 200}},
+    }
+    response = client.post("/v1/sweeps", json=sweep)
+    assert response.status_code == 422 and response.json()["problems"][0]["field"] == "vary"
+    batch = client.post("/v1/batch", json={"requests": [BASE_REQUEST | {"method": "binomial", "sections": 4}] * 200})
+    assert batch.status_code == 422 and batch.json()["problems"][0]["field"] == "requests"
+
+
+def test_api_key_when_set():
+    client = client_with(api_key="lab-bench-key")
+    refused = client.post(DESIGN, json=BASE_REQUEST)
+    assert refused.status_code == 401
+    assert refused.json()["problems"][0]["field"] == "authorization"
+    wrong = client.post(DESIGN, json=BASE_REQUEST, headers={"Authorization": "Bearer nope"})
+    assert wrong.status_code == 401
+    allowed = client.post(DESIGN, json=BASE_REQUEST, headers={"Authorization": "Bearer lab-bench-key"})
+    assert allowed.status_code == 200
+    health = client.get("/v1/health")
+    assert health.status_code == 200 and health.json()["key_required"] is True
+    assert client.get("/").status_code == 200
+
+
+def test_no_key_needed_by_default(client):
+    assert client.get("/v1/health").json()["key_required"] is False
+    assert client.post(DESIGN, json=BASE_REQUEST).status_code == 200
+
+
+def test_request_id_and_access_log_without_bodies(client, caplog):
+    with caplog.at_level(logging.INFO, logger="stepline.access"):
+        given = client.post(DESIGN, json=BASE_REQUEST | {"source_ohm": 49.123456}, headers={"X-Request-ID": "bench-7"})
+        made = client.get("/v1/health")
+    assert given.headers["x-request-id"] == "bench-7"
+    assert len(made.headers["x-request-id"]) == 32
+    records = [json.loads(r.getMessage()) for r in caplog.records if r.name == "stepline.access"]
+    assert {r["request_id"] for r in records} >= {"bench-7", made.headers["x-request-id"]}
+    assert all(set(r) == {"request_id", "method", "path", "status", "duration_ms", "client"} for r in records)
+    assert "49.123456" not in caplog.text
+
+
+def test_cors_allowlist():
+    client = client_with(cors_allow_origins=["http://lab-portal.example"])
+    allowed = client.options(
+        DESIGN, headers={"Origin": "http://lab-portal.example", "Access-Control-Request-Method": "POST"}
+    )
+    assert allowed.headers.get("access-control-allow-origin") == "http://lab-portal.example"
+    other = client.post(DESIGN, json=BASE_REQUEST, headers={"Origin": "http://elsewhere.example"})
+    assert "access-control-allow-origin" not in other.headers
+
+
+def test_page_headers_and_framing_setting():
+    page = client_with(frame_ancestors=["http://lab-portal.example"]).get("/")
+    assert page.headers["x-content-type-options"] == "nosniff"
+    assert "frame-ancestors 'self' http://lab-portal.example" in page.headers["content-security-policy"]
+
+
+@pytest.mark.parametrize(
+    "content",
+    [b"[" * 100000, b'{"a":' * 50000, b"\xff\xfe\xfd", b"\x00", b'{"source_ohm": 1e999999}', b"[]", b"3"],
+)
+def test_hostile_bodies_are_4xx(content):
+    response = client_with().post(DESIGN, content=content, headers={"content-type": "application/json"})
+    assert 400 <= response.status_code < 500
+    assert response.json()["problems"]
