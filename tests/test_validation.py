@@ -51,6 +51,7 @@ BAD_FIELDS = [
     (("points",), 1, "points"),
     (("points",), 10002, "points"),
     (("velocity_factor",), 0.0, "velocity_factor"),
+    (("velocity_factor",), 1e-200, "velocity_factor"),
     (("velocity_factor",), 1.5, "velocity_factor"),
     (("unknown_field",), 1, "unknown_field"),
 ]

@@ -180,10 +180,10 @@ def chebyshev_sections_for(
 
 def _at_least_one(required: float, method: str) -> int:
     """Round a required section count up (with a little slack for rounding) and check the limit."""
-    sections = max(1, math.ceil(required - 1e-9))
-    if sections > MAX_SECTIONS:
+    if not required - 1e-9 <= MAX_SECTIONS:  # also catches inf and nan
+        needed = f"{math.ceil(required - 1e-9)}" if math.isfinite(required) else "unboundedly many"
         raise InfeasibleDesignError(
-            f"a {method} transformer would need {sections} sections to meet the spec over this "
+            f"a {method} transformer would need {needed} sections to meet the spec over this "
             f"band; at most {MAX_SECTIONS} are allowed"
         )
-    return sections
+    return max(1, math.ceil(required - 1e-9))

@@ -28,6 +28,11 @@ def departure_warnings(
     predicted: PredictedFigures, verified: VerifiedFigures, theory: str, medium: Medium
 ) -> list[str]:
     """A plain sentence when the exact peak departs noticeably from the theory's, and why it may."""
+    if predicted.departure_fraction is None:
+        return [
+            f"The {theory} theory predicts no reflection in the band; the exact cascade's worst is "
+            f"{verified.max_reflection:.4g}."
+        ]
     if abs(predicted.departure_fraction) <= PREDICTION_TOLERANCE:
         return []
     effects = [name for name, present in (("dispersion", medium.dispersive), ("losses", medium.lossy)) if present]

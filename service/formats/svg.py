@@ -49,9 +49,9 @@ def transformer_svg(design: AnalysisResult, title: str, outer_diameter_m: float 
     """The drawing as SVG text."""
     kind = design.medium
     sections = design.sections
-    total = sum(s.length_m for s in sections)
+    total = max(sum(s.length_m for s in sections), 1e-12)  # sections may have (nearly) vanished
     sizes = [_size(s, kind) for s in sections]
-    largest = max([*sizes, outer_diameter_m or 0.0])
+    largest = max([*sizes, outer_diameter_m or 0.0, 1e-12])
     x_scale = (DRAW_RIGHT - DRAW_LEFT) / total
     y_scale = MAX_HALF_HEIGHT_PX / (0.5 * largest)
     labelled_every = math.ceil(len(sections) / MAX_VISIBLE_LABELS)

@@ -40,9 +40,9 @@ Points = Annotated[
 VelocityFactor = Annotated[
     float,
     Field(
-        gt=0.0,
+        ge=0.01,
         le=1.0,
-        description="Phase velocity of the ideal TEM line as a fraction of the speed of light.",
+        description="Phase velocity of the ideal TEM line as a fraction of the speed of light (0.01 to 1).",
     ),
 ]
 MaxReflection = Annotated[
