@@ -80,9 +80,8 @@ def main(count: int) -> None:
     latencies = np.array([seconds for _, seconds in results]) * 1e3
     errors = sum(1 for status, _ in results if status != 200)
     print(f"{count} requests at {CONCURRENCY}-way concurrency in {elapsed:.2f} s ({count / elapsed:.0f} req/s)")
-    print(
-        f"errors {errors}; latency p50 {np.percentile(latencies, 50):.1f} ms, p99 {np.percentile(latencies, 99):.1f} ms, max {latencies.max():.1f} ms"
-    )
+    p50, p99 = np.percentile(latencies, [50, 99])
+    print(f"errors {errors}; latency p50 {p50:.1f} ms, p99 {p99:.1f} ms, max {latencies.max():.1f} ms")
 
 
 if __name__ == "__main__":
