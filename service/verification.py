@@ -20,6 +20,7 @@ MIN_CHECK_POINTS = 257
 MAX_CHECK_POINTS = 20001
 CHECK_POINTS_PER_LOBE = 48
 REFINE_POINTS = 129
+PEAKS_REFINED = 6
 RETURN_LOSS_CAP_DB = 300.0
 C0 = network.SPEED_OF_LIGHT_M_PER_S
 
@@ -147,25 +148,27 @@ def _grids(starts: np.ndarray, stops: np.ndarray, count: int, squeeze: bool) -> 
 def worst_reflections(line: LineCascade, grid: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """Largest |reflection| over each row of the frequency grid (..., F), and where it occurs.
 
-    A dense grid finds the worst peak (many points per lobe of the response), and a finer grid
-    between its neighbours pins it down.
+    A dense grid samples every lobe of the response; the highest few local maxima (band edges
+    included) are then each pinned down on a finer grid between their neighbours, since near-equal
+    ripple peaks can swap order between the coarse samples and the true peaks.
     """
     values = line.reflection(grid)
     last = grid.shape[-1] - 1
-    index = np.argmax(values, axis=-1)[..., None]
-    low = np.take_along_axis(grid, np.maximum(index - 1, 0), axis=-1)
-    high = np.take_along_axis(grid, np.minimum(index + 1, last), axis=-1)
-    fine = low + (high - low) * np.linspace(0.0, 1.0, REFINE_POINTS)
-    fine_values = line.reflection(fine)
-    fine_index = np.argmax(fine_values, axis=-1)[..., None]
-    coarse_best = np.take_along_axis(values, index, axis=-1)[..., 0]
-    fine_best = np.take_along_axis(fine_values, fine_index, axis=-1)[..., 0]
-    better = fine_best > coarse_best
-    worst = np.where(better, fine_best, coarse_best)
-    where = np.where(
-        better, np.take_along_axis(fine, fine_index, axis=-1)[..., 0], np.take_along_axis(grid, index, axis=-1)[..., 0]
+    peaks = np.ones(values.shape, dtype=bool)
+    peaks[..., 1:-1] = (values[..., 1:-1] >= values[..., :-2]) & (values[..., 1:-1] >= values[..., 2:])
+    peaks[..., 0] = values[..., 0] >= values[..., 1]
+    peaks[..., -1] = values[..., -1] >= values[..., -2]
+    candidates = min(PEAKS_REFINED, grid.shape[-1])
+    score = np.where(peaks, values, -np.inf)
+    top = np.argpartition(-score, candidates - 1, axis=-1)[..., :candidates]
+    low = np.take_along_axis(grid, np.maximum(top - 1, 0), axis=-1)
+    high = np.take_along_axis(grid, np.minimum(top + 1, last), axis=-1)
+    fine = (low[..., None] + (high - low)[..., None] * np.linspace(0.0, 1.0, REFINE_POINTS)).reshape(
+        *grid.shape[:-1], candidates * REFINE_POINTS
     )
-    return worst, where
+    fine_values = line.reflection(fine)
+    index = np.argmax(fine_values, axis=-1)[..., None]
+    return np.take_along_axis(fine_values, index, axis=-1)[..., 0], np.take_along_axis(fine, index, axis=-1)[..., 0]
 
 
 def worst_reflection(line: LineCascade, start_hz: float, stop_hz: float) -> tuple[float, float]:

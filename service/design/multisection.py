@@ -10,6 +10,7 @@ the reflection or the insertion-loss function, and how impedances follow from th
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 
 import numpy as np
 from scipy.special import comb
@@ -76,15 +77,10 @@ def binomial_sections_for(
     max_reflection: float,
     theory: Theory = SMALL_REFLECTION,
 ) -> int:
-    """Smallest N whose binomial response stays within max_reflection over the band."""
-    rho = theory.measure(abs(load_reflection(source_ohm, load_ohm)))
-    spec = theory.measure(max_reflection)
-    if rho <= spec:
-        return 1
-    log_cos = math.log(math.cos(edge_angle_rad))
-    if log_cos == 0.0:
-        raise InfeasibleDesignError("the band reaches down to DC, where no stepped line can match")
-    return _at_least_one(math.log(spec / rho) / log_cos, "binomial")
+    """Smallest N whose binomial response stays within max_reflection over the band:
+    cos^N(theta_edge) <= spec / rho, i.e. N >= ln(rho / spec) / -ln cos(theta_edge)."""
+    spread = -math.log(math.cos(edge_angle_rad))
+    return _smallest_count(source_ohm, load_ohm, max_reflection, theory, spread, math.log, "binomial")
 
 
 def chebyshev_weights(sections: int, scale: float) -> np.ndarray:
@@ -167,15 +163,29 @@ def chebyshev_sections_for(
     max_reflection: float,
     theory: Theory = SMALL_REFLECTION,
 ) -> int:
-    """Smallest N whose equal-ripple response over the band stays within max_reflection."""
+    """Smallest N whose equal-ripple response over the band stays within max_reflection:
+    T_N(sec theta_edge) >= rho / spec, i.e. N >= acosh(rho / spec) / acosh(sec theta_edge)."""
+    spread = math.acosh(1.0 / math.cos(edge_angle_rad))
+    return _smallest_count(source_ohm, load_ohm, max_reflection, theory, spread, math.acosh, "Chebyshev")
+
+
+def _smallest_count(
+    source_ohm: float,
+    load_ohm: float,
+    max_reflection: float,
+    theory: Theory,
+    spread: float,
+    growth: Callable[[float], float],
+    method: str,
+) -> int:
+    """N >= growth(rho / spec) / spread, in the theory's measure of reflection; 1 if the load already meets it."""
     rho = theory.measure(abs(load_reflection(source_ohm, load_ohm)))
     spec = theory.measure(max_reflection)
     if rho <= spec:
         return 1
-    spread = math.acosh(1.0 / math.cos(edge_angle_rad))
     if spread == 0.0:
         raise InfeasibleDesignError("the band reaches down to DC, where no stepped line can match")
-    return _at_least_one(math.acosh(rho / spec) / spread, "Chebyshev")
+    return _at_least_one(growth(rho / spec) / spread, method)
 
 
 def _at_least_one(required: float, method: str) -> int:

@@ -8,32 +8,20 @@ from dataclasses import dataclass, replace
 import numpy as np
 
 from service.media.base import LineParameters, RealizationError
-from service.media.conductors import (
-    ETA_0,
-    roughness_factor,
-    surface_resistance_ohm,
-    tem_dielectric_attenuation,
-)
+from service.media.conductors import ETA_0, LineLosses
 
 C0 = 299_792_458.0
 
 
 @dataclass(frozen=True)
-class CoaxLine:
+class CoaxLine(LineLosses):
     """A coaxial line of fixed outer diameter D."""
 
     eps_r: float
     outer_diameter_m: float
-    loss_tangent: float = 0.0
-    conductivity_s_per_m: float | None = None
-    roughness_m: float = 0.0
     kind: str = "coax"
     geometry_name: str | None = "inner_diameter_m"
     dispersive: bool = False
-
-    @property
-    def lossy(self) -> bool:
-        return self.loss_tangent > 0.0 or self.conductivity_s_per_m is not None
 
     def perturbed(self, eps_r: np.ndarray, height_m: np.ndarray) -> CoaxLine:
         """The same line with other (array-valued, per-trial) permittivity; coax has no substrate height."""
@@ -46,22 +34,14 @@ class CoaxLine:
         )
 
     def parameters(self, geometry: np.ndarray, frequency_hz: np.ndarray) -> LineParameters:
-        z = self.impedance(geometry)
-        shape = np.broadcast_shapes(np.shape(z), np.shape(frequency_hz))
-        impedance = np.broadcast_to(z, shape)
-        attenuation = None
-        if self.lossy:
-            f = np.broadcast_to(np.asarray(frequency_hz, dtype=float), shape)
-            attenuation = tem_dielectric_attenuation(f, self.eps_r, self.loss_tangent)
-            if self.conductivity_s_per_m is not None:
-                # Pozar, Microwave Engineering, ch. 2: alpha_c = Rs (1/a + 1/b) / (2 eta ln(b/a)), radii a, b.
-                rs = surface_resistance_ohm(f, self.conductivity_s_per_m)
-                rough = roughness_factor(f, self.conductivity_s_per_m, self.roughness_m)
-                d = np.asarray(geometry)
-                eta = ETA_0 / np.sqrt(self.eps_r)
-                radii_term = 2.0 / d + 2.0 / self.outer_diameter_m
-                attenuation = attenuation + rs * rough * radii_term / (2.0 * eta * np.log(self.outer_diameter_m / d))
-        return LineParameters(impedance, np.full(shape, self.eps_r), attenuation)
+        d = np.asarray(geometry)
+        # Pozar, Microwave Engineering, ch. 2: alpha_c = Rs (1/a + 1/b) / (2 eta ln(b/a)), radii a and b.
+        eta = ETA_0 / np.sqrt(self.eps_r)
+        radii_term = 2.0 / d + 2.0 / self.outer_diameter_m
+        per_resistance = radii_term / (2.0 * eta * np.log(self.outer_diameter_m / d))
+        return self.tem_parameters(
+            self.impedance(d), self.eps_r, frequency_hz, lambda resistance: resistance * per_resistance
+        )
 
     def geometry_for(self, impedance_ohm: np.ndarray, frequency_hz: float) -> np.ndarray:
         z = np.atleast_1d(np.asarray(impedance_ohm, dtype=float))

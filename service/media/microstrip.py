@@ -13,7 +13,7 @@ from dataclasses import dataclass, replace
 import numpy as np
 
 from service.media.base import LineParameters, invert_monotone
-from service.media.conductors import ETA_0, roughness_factor, surface_resistance_ohm
+from service.media.conductors import ETA_0, LineLosses
 
 HJ_U_RANGE = (0.01, 100.0)
 KJ_U_RANGE = (0.1, 100.0)
@@ -99,22 +99,15 @@ def transverse_resonance_hz(width_m: np.ndarray, height_m: float, eps_r: float) 
 
 
 @dataclass(frozen=True)
-class MicrostripLine:
+class MicrostripLine(LineLosses):
     """A strip of width W (the geometry) on a substrate of height h over a ground plane."""
 
     eps_r: float
     height_m: float
     thickness_m: float
-    loss_tangent: float = 0.0
-    conductivity_s_per_m: float | None = None
-    roughness_m: float = 0.0
     kind: str = "microstrip"
     geometry_name: str | None = "width_m"
     dispersive: bool = True
-
-    @property
-    def lossy(self) -> bool:
-        return self.loss_tangent > 0.0 or self.conductivity_s_per_m is not None
 
     def perturbed(self, eps_r: np.ndarray, height_m: np.ndarray) -> MicrostripLine:
         """The same line with other (array-valued, per-trial) permittivity and substrate height."""
@@ -134,9 +127,8 @@ class MicrostripLine:
                 filling = np.where(self.eps_r > 1.0, (eps_eff - 1.0) / np.maximum(self.eps_r - 1.0, 1e-300), 0.0)
                 attenuation = attenuation + k0 * self.eps_r * filling * self.loss_tangent / (2.0 * np.sqrt(eps_eff))
             if self.conductivity_s_per_m is not None:
-                rs = surface_resistance_ohm(f, self.conductivity_s_per_m)
-                rough = roughness_factor(f, self.conductivity_s_per_m, self.roughness_m)
-                attenuation = attenuation + rs * rough / (impedance * np.asarray(geometry))
+                resistance = self.conductor_resistance_ohm(f)
+                attenuation = attenuation + resistance / (impedance * np.asarray(geometry))
         return LineParameters(impedance, eps_eff, attenuation)
 
     def geometry_for(self, impedance_ohm: np.ndarray, frequency_hz: float) -> np.ndarray:

@@ -14,7 +14,7 @@ from dataclasses import dataclass, replace
 import numpy as np
 
 from service.media.base import LineParameters, invert_monotone
-from service.media.conductors import roughness_factor, surface_resistance_ohm, tem_dielectric_attenuation
+from service.media.conductors import LineLosses
 
 C0 = 299_792_458.0
 WIDE_LIMIT = 0.35
@@ -37,22 +37,15 @@ def stripline_impedance(width_m: np.ndarray, spacing_m: float, thickness_m: floa
 
 
 @dataclass(frozen=True)
-class StriplineLine:
+class StriplineLine(LineLosses):
     """Stripline of the given ground spacing, strip thickness and dielectric."""
 
     eps_r: float
     ground_spacing_m: float
     thickness_m: float
-    loss_tangent: float = 0.0
-    conductivity_s_per_m: float | None = None
-    roughness_m: float = 0.0
     kind: str = "stripline"
     geometry_name: str | None = "width_m"
     dispersive: bool = False
-
-    @property
-    def lossy(self) -> bool:
-        return self.loss_tangent > 0.0 or self.conductivity_s_per_m is not None
 
     def perturbed(self, eps_r: np.ndarray, height_m: np.ndarray) -> StriplineLine:
         """The same line with other (array-valued, per-trial) permittivity and substrate height."""
@@ -60,21 +53,11 @@ class StriplineLine:
 
     def parameters(self, geometry: np.ndarray, frequency_hz: np.ndarray) -> LineParameters:
         z = stripline_impedance(geometry, self.ground_spacing_m, self.thickness_m, self.eps_r)
-        shape = np.broadcast_shapes(np.shape(z), np.shape(frequency_hz))
-        impedance = np.broadcast_to(z, shape)
-        attenuation = None
-        if self.lossy:
-            f = np.broadcast_to(np.asarray(frequency_hz, dtype=float), shape)
-            attenuation = tem_dielectric_attenuation(f, self.eps_r, self.loss_tangent)
-            if self.conductivity_s_per_m is not None:
-                # Conductor loss by the incremental-inductance estimate for both strip faces and
-                # grounds: alpha_c ~ Rs / (Z0 (W + t)) * (1 + W / b) / 2 (common practice, no source).
-                rs = surface_resistance_ohm(f, self.conductivity_s_per_m)
-                rough = roughness_factor(f, self.conductivity_s_per_m, self.roughness_m)
-                w = np.asarray(geometry)
-                factor = (1.0 + w / self.ground_spacing_m) / (2.0 * (w + self.thickness_m))
-                attenuation = attenuation + rs * rough * factor / impedance
-        return LineParameters(impedance, np.full(shape, self.eps_r), attenuation)
+        w = np.asarray(geometry)
+        # Conductor loss by the incremental-inductance estimate for both strip faces and grounds:
+        # alpha_c ~ Rs / (Z0 (W + t)) * (1 + W / b) / 2 (common practice, no source).
+        factor = (1.0 + w / self.ground_spacing_m) / (2.0 * (w + self.thickness_m))
+        return self.tem_parameters(z, self.eps_r, frequency_hz, lambda resistance: resistance * factor / z)
 
     def geometry_for(self, impedance_ohm: np.ndarray, frequency_hz: float) -> np.ndarray:
         def impedance_of(width: float) -> float:

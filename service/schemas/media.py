@@ -16,6 +16,22 @@ Conductivity = Annotated[float, Field(gt=0.0, le=1e9, description="Conductor con
 Roughness = Annotated[float, Field(ge=0.0, le=1e-4, description="RMS conductor surface roughness in metres.")]
 
 
+class LossFields(StrictModel):
+    """Optional loss data of a physical line."""
+
+    loss_tangent: LossTangent = 0.0
+    conductivity_s_per_m: Conductivity | None = None
+    roughness_m: Roughness = 0.0
+
+    def losses(self) -> dict[str, float | None]:
+        """The loss fields as keyword arguments of a media model."""
+        return {
+            "loss_tangent": self.loss_tangent,
+            "conductivity_s_per_m": self.conductivity_s_per_m,
+            "roughness_m": self.roughness_m,
+        }
+
+
 class IdealSpec(StrictModel):
     """The ideal lossless TEM line of the core design."""
 
@@ -26,33 +42,25 @@ class IdealSpec(StrictModel):
         return IdealLine(self.velocity_factor)
 
 
-class MicrostripSpec(StrictModel):
+class MicrostripSpec(LossFields):
     """A microstrip on a substrate of height `height_m`; sections get a `width_m`."""
 
     kind: Literal["microstrip"]
     eps_r: Permittivity
     height_m: Dimension
     thickness_m: Annotated[float, Field(ge=0.0, le=1e-3, description="Strip thickness in metres.")]
-    loss_tangent: LossTangent = 0.0
-    conductivity_s_per_m: Conductivity | None = None
-    roughness_m: Roughness = 0.0
 
     def model(self) -> Medium:
-        return MicrostripLine(
-            self.eps_r, self.height_m, self.thickness_m, self.loss_tangent, self.conductivity_s_per_m, self.roughness_m
-        )
+        return MicrostripLine(self.eps_r, self.height_m, self.thickness_m, **self.losses())
 
 
-class StriplineSpec(StrictModel):
+class StriplineSpec(LossFields):
     """A symmetric stripline between ground planes `ground_spacing_m` apart."""
 
     kind: Literal["stripline"]
     eps_r: Permittivity
     ground_spacing_m: Dimension
     thickness_m: Annotated[float, Field(ge=0.0, le=1e-3, description="Strip thickness in metres.")]
-    loss_tangent: LossTangent = 0.0
-    conductivity_s_per_m: Conductivity | None = None
-    roughness_m: Roughness = 0.0
 
     @model_validator(mode="after")
     def _strip_fits(self) -> StriplineSpec:
@@ -61,30 +69,18 @@ class StriplineSpec(StrictModel):
         return self
 
     def model(self) -> Medium:
-        return StriplineLine(
-            self.eps_r,
-            self.ground_spacing_m,
-            self.thickness_m,
-            self.loss_tangent,
-            self.conductivity_s_per_m,
-            self.roughness_m,
-        )
+        return StriplineLine(self.eps_r, self.ground_spacing_m, self.thickness_m, **self.losses())
 
 
-class CoaxSpec(StrictModel):
+class CoaxSpec(LossFields):
     """A coaxial line of outer (shield inner) diameter `outer_diameter_m`; sections get an `inner_diameter_m`."""
 
     kind: Literal["coax"]
     eps_r: Permittivity
     outer_diameter_m: Dimension
-    loss_tangent: LossTangent = 0.0
-    conductivity_s_per_m: Conductivity | None = None
-    roughness_m: Roughness = 0.0
 
     def model(self) -> Medium:
-        return CoaxLine(
-            self.eps_r, self.outer_diameter_m, self.loss_tangent, self.conductivity_s_per_m, self.roughness_m
-        )
+        return CoaxLine(self.eps_r, self.outer_diameter_m, **self.losses())
 
 
 MediumSpec = Annotated[IdealSpec | MicrostripSpec | StriplineSpec | CoaxSpec, Field(discriminator="kind")]
