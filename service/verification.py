@@ -19,7 +19,8 @@ from service.schemas.results import JunctionResult, ResponseCurve, VerifiedFigur
 MIN_CHECK_POINTS = 257
 MAX_CHECK_POINTS = 20001
 CHECK_POINTS_PER_LOBE = 48
-REFINE_POINTS = 129
+REFINE_POINTS = 17  # per round, spanning the neighbours of the current best
+REFINE_ROUNDS = 2
 PEAKS_REFINED = 6
 RETURN_LOSS_CAP_DB = 300.0
 C0 = network.SPEED_OF_LIGHT_M_PER_S
@@ -149,26 +150,29 @@ def worst_reflections(line: LineCascade, grid: np.ndarray) -> tuple[np.ndarray, 
     """Largest |reflection| over each row of the frequency grid (..., F), and where it occurs.
 
     A dense grid samples every lobe of the response; the highest few local maxima (band edges
-    included) are then each pinned down on a finer grid between their neighbours, since near-equal
-    ripple peaks can swap order between the coarse samples and the true peaks.
+    included) are then each pinned down by two rounds of finer grids between their neighbours,
+    since near-equal ripple peaks can swap order between the coarse samples and the true peaks.
     """
     values = line.reflection(grid)
-    last = grid.shape[-1] - 1
     peaks = np.ones(values.shape, dtype=bool)
     peaks[..., 1:-1] = (values[..., 1:-1] >= values[..., :-2]) & (values[..., 1:-1] >= values[..., 2:])
     peaks[..., 0] = values[..., 0] >= values[..., 1]
     peaks[..., -1] = values[..., -1] >= values[..., -2]
     candidates = min(PEAKS_REFINED, grid.shape[-1])
-    score = np.where(peaks, values, -np.inf)
-    top = np.argpartition(-score, candidates - 1, axis=-1)[..., :candidates]
-    low = np.take_along_axis(grid, np.maximum(top - 1, 0), axis=-1)
-    high = np.take_along_axis(grid, np.minimum(top + 1, last), axis=-1)
-    fine = (low[..., None] + (high - low)[..., None] * np.linspace(0.0, 1.0, REFINE_POINTS)).reshape(
-        *grid.shape[:-1], candidates * REFINE_POINTS
-    )
-    fine_values = line.reflection(fine)
-    index = np.argmax(fine_values, axis=-1)[..., None]
-    return np.take_along_axis(fine_values, index, axis=-1)[..., 0], np.take_along_axis(fine, index, axis=-1)[..., 0]
+    top = np.argpartition(-np.where(peaks, values, -np.inf), candidates - 1, axis=-1)[..., :candidates]
+    step = (grid[..., -1:] - grid[..., :1]) / (grid.shape[-1] - 1)
+    centre = np.take_along_axis(grid, top, axis=-1)
+    low, high = grid[..., :1], grid[..., -1:]
+    for _ in range(REFINE_ROUNDS):
+        offsets = np.linspace(-1.0, 1.0, REFINE_POINTS)
+        fine = np.clip(centre[..., None] + step[..., None] * offsets, low[..., None], high[..., None])
+        fine_values = line.reflection(fine.reshape(*grid.shape[:-1], -1)).reshape(fine.shape)
+        best = np.argmax(fine_values, axis=-1)[..., None]
+        centre = np.take_along_axis(fine, best, axis=-1)[..., 0]
+        worst = np.take_along_axis(fine_values, best, axis=-1)[..., 0]
+        step = step * 2.0 / (REFINE_POINTS - 1)
+    index = np.argmax(worst, axis=-1)[..., None]
+    return np.take_along_axis(worst, index, axis=-1)[..., 0], np.take_along_axis(centre, index, axis=-1)[..., 0]
 
 
 def worst_reflection(line: LineCascade, start_hz: float, stop_hz: float) -> tuple[float, float]:

@@ -16,7 +16,7 @@ from service.settings import Settings
 PER_DESIGN_S = 1.5e-3
 PER_SECTION_POINT_S = 4e-8
 CHECK_POINTS_RANGE = (257, 20001)
-REFINE_POINTS = 6 * 129  # the few highest peaks, each refined
+REFINE_POINTS = 6 * 2 * 17  # the few highest peaks, each refined in two rounds
 PHYSICAL_MEDIUM_FACTOR = 3.0
 SPEC_DRIVEN_FACTOR = 2.0
 TAPER_FACTOR = 4.0
