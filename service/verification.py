@@ -58,10 +58,6 @@ class LineCascade:
         gain = network.transducer_gain(self.abcd(frequency_hz), self.source_ohm, self.load.impedance_ohm(frequency_hz))
         return -10.0 * np.log10(np.maximum(gain, 1e-30))
 
-    def impedances_at(self, frequency_hz: float) -> np.ndarray:
-        """Each section's characteristic impedance at one frequency."""
-        return self.medium.parameters(self.geometry, np.array([[frequency_hz]])).impedance_ohm[0]
-
     def eps_eff_at(self, frequency_hz: float) -> np.ndarray:
         """Each section's effective permittivity at one frequency."""
         return self.medium.parameters(self.geometry, np.array([[frequency_hz]])).eps_eff[0]
@@ -252,13 +248,14 @@ def response_curve(line: LineCascade, start_hz: float, stop_hz: float, points: i
     return response_curves_many([line], np.array([start_hz]), np.array([stop_hz]), np.array([points]))[0]
 
 
-def junction_results(line: LineCascade, frequency_hz: float) -> list[JunctionResult]:
-    """Reflection and transmission at every step, source to load, at one frequency.
+def junction_results(line: LineCascade, impedances_ohm: np.ndarray) -> list[JunctionResult]:
+    """Reflection and transmission at every step, source to load, for the sections' impedances
+    (at the frequency they were taken at).
 
     The step into the load is listed only for a fixed resistive load; for other loads its
     reflection is complex or changes with frequency.
     """
-    chain = np.concatenate(([line.source_ohm], line.impedances_at(frequency_hz)))
+    chain = np.concatenate(([line.source_ohm], impedances_ohm))
     if not line.load.frequency_dependent:
         load = complex(line.load.impedance_ohm(np.zeros(1))[0])
         if load.imag == 0.0:

@@ -15,7 +15,7 @@ from service.media import IdealLine, RealizationError
 from service.network import SPEED_OF_LIGHT_M_PER_S
 from service.schemas.results import BodeFanoFigures, ResponseCurve, SectionResult, VerifiedFigures
 from service.schemas.transformers import MatchRequest
-from service.verification import LineCascade, electrical_length_rad, junction_results
+from service.verification import LineCascade, junction_results
 
 REAL_TOLERANCE = 1e-12  # |X| / |Z| below which a load counts as resistive
 DEFAULT_MIN_FEATURE_M = 1e-4
@@ -83,7 +83,7 @@ def realize(
     except RealizationError as exc:
         raise UnmeetableRequestError("medium", str(exc)) from exc
     frequencies = np.broadcast_to(np.asarray(frequency_hz, dtype=float), np.shape(geometry))
-    eps = np.array([medium.parameters(g, np.array([f])).eps_eff[0] for g, f in zip(geometry, frequencies, strict=True)])
+    eps = medium.parameters(geometry, frequencies).eps_eff  # each section at its own frequency
     lengths = np.asarray(angles_rad) * SPEED_OF_LIGHT_M_PER_S / (2.0 * np.pi * frequencies * np.sqrt(eps))
     return LineCascade(request.source_ohm, load, medium, geometry, lengths)
 
@@ -108,13 +108,14 @@ def bode_fano_figures(load: LoadModel, request: MatchRequest, verified: Verified
     )
 
 
-def section_results(line: LineCascade, frequency_hz: float) -> list[SectionResult]:
-    """Each section's impedance, electrical length, permittivity and geometry at one frequency."""
-    degrees = np.degrees(electrical_length_rad(line, frequency_hz))
-    impedances = line.impedances_at(frequency_hz)
-    eps = line.eps_eff_at(frequency_hz)
+def section_results(line: LineCascade, frequency_hz: float) -> tuple[list[SectionResult], np.ndarray]:
+    """Each section's impedance, electrical length, permittivity and geometry at one frequency,
+    and the impedances themselves."""
+    params = line.medium.parameters(line.geometry, np.array([frequency_hz]))
+    impedances, eps = params.impedance_ohm, params.eps_eff
+    degrees = 360.0 * frequency_hz * np.sqrt(eps) * line.lengths_m / SPEED_OF_LIGHT_M_PER_S
     name = line.medium.geometry_name
-    return [
+    results = [
         SectionResult(
             impedance_ohm=float(z),
             electrical_length_deg=float(d),
@@ -124,6 +125,7 @@ def section_results(line: LineCascade, frequency_hz: float) -> list[SectionResul
         )
         for z, d, m, e, g in zip(impedances, degrees, line.lengths_m, eps, line.geometry, strict=True)
     ]
+    return results, impedances
 
 
 def checked_blocks(
@@ -132,11 +134,12 @@ def checked_blocks(
     """The response blocks every verified result shares, and the medium's own notes."""
     band = request.band
     medium = line.medium
+    sections, impedances = section_results(line, band.center_hz)
     return {
         "center_hz": band.center_hz,
-        "sections": section_results(line, band.center_hz),
+        "sections": sections,
         "total_length_m": float(np.sum(line.lengths_m)),
-        "junctions": junction_results(line, band.center_hz),
+        "junctions": junction_results(line, impedances),
         "verified": verified,
         "response": curve,
         "velocity_factor": medium.velocity_factor if isinstance(medium, IdealLine) else None,
