@@ -131,3 +131,20 @@ def test_hostile_bodies_are_4xx(content):
     response = client_with().post(DESIGN, content=content, headers={"content-type": "application/json"})
     assert 400 <= response.status_code < 500
     assert response.json()["problems"]
+
+
+@pytest.mark.parametrize(
+    "method, change",
+    [
+        ("chebyshev", {"sections": 32, "theory": "exact", "band": {"start_hz": 1e9, "stop_hz": 1e9 * (1 + 1e-12)}}),
+        ("chebyshev", {"sections": 32, "theory": "exact", "load": {"resistance_ohm": 1e5}, "source_ohm": 1e-3}),
+        ("binomial", {"sections": 32, "load": {"resistance_ohm": 1e-3}, "max_reflection": 1e-6}),
+        ("taper", {"load": {"resistance_ohm": 1e5}, "source_ohm": 1e-3, "max_reflection": 0.9, "segments": 16}),
+        ("quarter-wave", {"load": {"resistance_ohm": 1e-3, "reactance_ohm": 1e5}}),
+    ],
+)
+def test_extreme_valid_requests_answer_without_server_errors(method, change):
+    # Regression cases from fuzzing at larger example counts: corners of the valid input space.
+    response = client_with().post(f"/v1/transformers/{method}", json=BASE_REQUEST | change)
+    assert response.status_code in (200, 422), response.text
+    assert "NaN" not in response.text and "Infinity" not in response.text

@@ -4,7 +4,7 @@ import math
 
 import numpy as np
 import pytest
-from scipy.special import eval_chebyt
+from scipy.special import comb, eval_chebyt
 
 from service.design import (
     band_edge_angle_rad,
@@ -38,12 +38,23 @@ def test_chebyshev_three_sections_textbook_example():
 @pytest.mark.parametrize("scale", [1.0, 1.3, 2.5])
 def test_chebyshev_weights_rebuild_the_chebyshev_polynomial(sections, scale):
     # The junction weights, summed as sum_n w_n exp(-2jn theta), must equal
-    # exp(-jN theta) T_N(scale cos theta); T_N from SciPy's eval_chebyt as the reference.
+    # exp(-jN theta) T_N(scale cos theta) / T_N(scale); T_N from SciPy's eval_chebyt as the reference.
     weights = chebyshev_weights(sections, scale)
     theta = np.linspace(0.0, math.pi, 97)
     series = np.exp(-2j * np.outer(theta, np.arange(sections + 1))) @ weights
     expected = np.exp(-1j * sections * theta) * eval_chebyt(sections, scale * np.cos(theta))
+    expected /= eval_chebyt(sections, scale)
     assert np.max(np.abs(series - expected)) <= 1e-9 * max(1.0, np.max(np.abs(expected)))
+
+
+def test_chebyshev_weights_stay_finite_for_very_narrow_bands():
+    # 32 sections over a 1e-12 fractional band: T_32(sec theta_edge) overflows a double, but the
+    # normalized weights do not; they approach the binomial shape C(N, n) / 2^N (the limit of
+    # T_N(s cos theta) / T_N(s) as s grows is cos^N theta).
+    edge = band_edge_angle_rad(1.0, 1.0 + 1e-12)
+    weights = chebyshev_weights(32, 1.0 / math.cos(edge))
+    assert np.all(np.isfinite(weights))
+    assert weights / weights.sum() == pytest.approx(comb(32, np.arange(33)) / 2**32, abs=1e-9)
 
 
 @pytest.mark.parametrize("sections, argument", [(3, 0.2), (3, 0.6), (4, 0.1), (5, 0.9), (6, 1.4)])

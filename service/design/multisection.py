@@ -84,7 +84,10 @@ def binomial_sections_for(
 
 
 def chebyshev_weights(sections: int, scale: float) -> np.ndarray:
-    """Junction weights of T_N(scale cos theta), n = 0..N, from its cos((N-2n) theta) terms.
+    """Junction weights of T_N(scale cos theta) / T_N(scale), n = 0..N, from its cos((N-2n) theta) terms.
+
+    Dividing by T_N(scale) (the weights only matter up to a common factor) keeps them finite for
+    very narrow bands, where scale = sec(theta_edge) is huge and T_N(scale) overflows.
 
     T_N(scale x) is a polynomial of degree N in x, so its Chebyshev series b_m (the coefficients of
     cos(m theta), since cos(m theta) = T_m(cos theta)) follows exactly from its values at the N+1
@@ -93,7 +96,7 @@ def chebyshev_weights(sections: int, scale: float) -> np.ndarray:
     """
     count = sections + 1
     nodes = math.pi * (np.arange(count) + 0.5) / count
-    values = chebyshev_values(sections, scale * np.cos(nodes))
+    values = chebyshev_ratio(sections, scale * np.cos(nodes), scale)
     series = 2.0 / count * np.cos(np.outer(np.arange(count), nodes)) @ values
     series[0] *= 0.5
     orders = np.abs(sections - 2 * np.arange(count))
@@ -103,18 +106,25 @@ def chebyshev_weights(sections: int, scale: float) -> np.ndarray:
     return weights
 
 
-def chebyshev_values(sections: int, y: np.ndarray) -> np.ndarray:
-    """T_N(y) for any real y: cos(N acos y) inside [-1, 1], +-cosh(N acosh |y|) outside."""
-    inside = np.abs(y) <= 1.0
-    outside = np.cosh(sections * np.arccosh(np.maximum(np.abs(y), 1.0)))
+def chebyshev_ratio(sections: int, y: np.ndarray, scale: float) -> np.ndarray:
+    """T_N(y) / T_N(scale) for real y and scale >= 1, evaluated without overflow.
+
+    Inside [-1, 1] T_N(y) = cos(N acos y); outside it is +-cosh(N acosh |y|), and the ratio of two
+    cosh values is taken through exponentials of their difference.
+    """
+    top = sections * np.arccosh(max(scale, 1.0))
+    magnitude = sections * np.arccosh(np.maximum(np.abs(y), 1.0))
+    outside = np.exp(magnitude - top) * (1.0 + np.exp(-2.0 * magnitude)) / (1.0 + np.exp(-2.0 * top))
+    inside = np.cos(sections * np.arccos(np.clip(y, -1.0, 1.0))) * 2.0 * np.exp(-top) / (1.0 + np.exp(-2.0 * top))
     sign = np.where(y < 0.0, (-1.0) ** sections, 1.0)
-    return np.where(inside, np.cos(sections * np.arccos(np.clip(y, -1.0, 1.0))), sign * outside)
+    return np.where(np.abs(y) <= 1.0, inside, sign * outside)
 
 
 def chebyshev_peak(sections: int, argument: float) -> float:
     """max |T_N(y)| over |y| <= argument, argument >= 0."""
     if argument >= 1.0:
-        return float(np.cosh(sections * np.arccosh(argument)))
+        with np.errstate(over="ignore"):  # beyond a double for very narrow bands: inf, a zero ripple
+            return float(np.cosh(sections * np.arccosh(argument)))
     extrema = np.cos(np.arange(sections + 1) * math.pi / sections)
     if np.any(np.abs(extrema) <= argument):
         return 1.0
