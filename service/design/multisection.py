@@ -19,6 +19,7 @@ from service.design.stepped import SteppedDesign, fraction_from_edge_angle, load
 from service.design.theory import SMALL_REFLECTION, Theory
 
 MAX_SECTIONS = 32
+MAX_SCALE = 1e100
 FULL_BAND_FRACTION = 2.0  # the whole period 0 .. 2 f0 of a commensurate line
 
 
@@ -120,15 +121,18 @@ def chebyshev_ratio(sections: int, y: np.ndarray, scale: float) -> np.ndarray:
     return np.where(np.abs(y) <= 1.0, inside, sign * outside)
 
 
-def chebyshev_peak(sections: int, argument: float) -> float:
-    """max |T_N(y)| over |y| <= argument, argument >= 0."""
+def chebyshev_peak_ratio(sections: int, argument: float, scale: float) -> float:
+    """max |T_N(y)| over |y| <= argument (>= 0), divided by T_N(scale) (scale >= 1), without overflow."""
     if argument >= 1.0:
-        with np.errstate(over="ignore"):  # beyond a double for very narrow bands: inf, a zero ripple
-            return float(np.cosh(sections * np.arccosh(argument)))
+        return float(chebyshev_ratio(sections, np.array([argument]), scale)[0])
     extrema = np.cos(np.arange(sections + 1) * math.pi / sections)
-    if np.any(np.abs(extrema) <= argument):
-        return 1.0
-    return abs(math.cos(sections * math.acos(argument)))
+    peak = 1.0 if np.any(np.abs(extrema) <= argument) else abs(math.cos(sections * math.acos(argument)))
+    return peak * float(chebyshev_ratio(sections, np.array([1.0]), scale)[0])
+
+
+def _bounded_scale(scale: float) -> float:
+    """Beyond MAX_SCALE, T_N(s cos theta) / T_N(s) equals cos^N theta to double precision."""
+    return min(scale, MAX_SCALE)
 
 
 def chebyshev(
@@ -149,9 +153,10 @@ def chebyshev(
     rho = theory.measure(rho_reflection)
     notes: tuple[str, ...] = ()
     if ripple is None:
-        scale = 1.0 / math.cos(edge_angle_rad)
+        scale = _bounded_scale(1.0 / math.cos(edge_angle_rad))
     elif ripple < rho_reflection:
-        scale = math.cosh(math.acosh(rho / theory.measure(ripple)) / sections)
+        spread = math.acosh(rho / theory.measure(ripple)) / sections
+        scale = _bounded_scale(math.cosh(spread) if spread < math.acosh(MAX_SCALE) else MAX_SCALE)
     else:
         scale = 1.0
         notes = (
@@ -159,9 +164,8 @@ def chebyshev(
             f"{ripple:.4g}: the equal-ripple design degenerates to a response that never exceeds "
             "the load's own reflection.",
         )
-    design_ripple = rho / chebyshev_peak(sections, scale)
     impedances = theory.impedances(source_ohm, load_ohm, chebyshev_weights(sections, scale))
-    predicted = theory.unmeasure(design_ripple * chebyshev_peak(sections, scale * math.cos(edge_angle_rad)))
+    predicted = theory.unmeasure(rho * chebyshev_peak_ratio(sections, scale * math.cos(edge_angle_rad), scale))
     fraction = fraction_from_edge_angle(math.acos(1.0 / scale))
     return SteppedDesign.quarter_waves(impedances, predicted, fraction, notes)
 
