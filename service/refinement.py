@@ -9,6 +9,7 @@ The exact cascade is both the objective and the final judge.
 
 from __future__ import annotations
 
+import time
 from dataclasses import dataclass
 
 import numpy as np
@@ -18,6 +19,7 @@ from service.verification import LineCascade, worst_reflection
 
 GRID_POINTS = 81
 MAX_ITERATIONS = 150
+MAX_SECONDS = 1.5  # the optimizer stops here with the best point so far, so no request runs long
 GEOMETRY_FREEDOM = 4.0  # each section's geometry (impedance, width, diameter) may move within this factor
 MAX_LENGTH_FACTOR = 2.0  # each length may shrink to zero or grow to this many times a quarter wave
 
@@ -35,7 +37,8 @@ def refine_minimax(line: LineCascade, start_hz: float, stop_hz: float, quarter_w
     """Adjust section geometry (hence impedance) and lengths for the smallest worst-case reflection.
 
     The result is never worse than the start: if the optimizer does not improve the worst
-    reflection on the dense check grid, the original line is kept.
+    reflection on the dense check grid, the original line is kept. The optimizer gets at most
+    MAX_ITERATIONS iterations and MAX_SECONDS of time, whichever ends first.
     """
     grid = np.linspace(start_hz, stop_hz, GRID_POINTS)
     count = line.geometry.size
@@ -52,6 +55,12 @@ def refine_minimax(line: LineCascade, start_hz: float, stop_hz: float, quarter_w
     spread = np.log(GEOMETRY_FREEDOM)
     bounds = [(z - spread, z + spread) for z in log_start]
     bounds += [(0.0, MAX_LENGTH_FACTOR)] * count + [(0.0, 1.0)]
+    deadline = time.monotonic() + MAX_SECONDS
+
+    def out_of_time(*_: object) -> None:
+        if time.monotonic() > deadline:
+            raise StopIteration
+
     result = minimize(
         lambda x: x[-1],
         start,
@@ -60,6 +69,7 @@ def refine_minimax(line: LineCascade, start_hz: float, stop_hz: float, quarter_w
         bounds=bounds,
         constraints=[{"type": "ineq", "fun": margins}],
         options={"maxiter": MAX_ITERATIONS, "ftol": 1e-12},
+        callback=out_of_time,
     )
     refined = unpack(result.x)
     if worst_reflection(refined, start_hz, stop_hz)[0] >= worst_reflection(line, start_hz, stop_hz)[0]:

@@ -20,7 +20,7 @@ REFINE_POINTS = 6 * 2 * 17  # the few highest peaks, each refined in two rounds
 PHYSICAL_MEDIUM_FACTOR = 3.0
 SPEC_DRIVEN_FACTOR = 2.0
 TAPER_FACTOR = 4.0
-REFINEMENT_S = 0.4
+REFINEMENT_S = 1.7  # the refinement's own time limit, and a little to check its result
 YIELD_GRID_POINTS = 201
 GUESSED_SECTIONS = 8
 

@@ -109,12 +109,12 @@ def designed(plan: Plan, options: DesignOptions | None, first: TransformerDesign
 
     The theory's N is tried first (or `first`, its already-checked design); where the exact
     cascade misses the spec, N grows until it meets it (or the section limit is reached), and a
-    warning says so.
+    warning says so. For loads that change with frequency the theory's N is kept and refined.
     """
     theory_sections = plan.theory_sections()
     result = first or _finished(plan, theory_sections, (), options)
-    if plan.sections is not None:
-        return result
+    if plan.sections is not None or plan.target.load.frequency_dependent:
+        return result  # refined designs keep the theory's count: each refinement takes up to seconds
     sections = theory_sections
     while not result.verified.meets_spec and sections < MAX_SECTIONS:
         sections += 1
