@@ -1,5 +1,6 @@
 """Transformer synthesis endpoints: thin wrappers around the designer."""
 
+from collections.abc import Callable
 from typing import Annotated
 
 from fastapi import APIRouter, Body, Depends
@@ -19,59 +20,76 @@ from service.settings import Settings
 Format = Annotated[OutputFormat, Depends(output_format)]
 
 
+DesignFunction = Callable[..., TransformerDesign]
+
+# (path, request model, designer function, summary, description) of each design route
+DESIGN_ROUTES: list[tuple[str, type[MatchRequest], DesignFunction, str, str]] = [
+    (
+        "quarter-wave",
+        QuarterWaveRequest,
+        designer.quarter_wave,
+        "Quarter-wave transformer",
+        "One section of impedance sqrt(Z0 RL), a quarter wave long at the band centre.",
+    ),
+    (
+        "binomial",
+        TransformerRequest,
+        designer.binomial,
+        "Binomial (maximally flat)",
+        "Maximally flat multi-section transformer; N given, or the smallest N meeting the spec.",
+    ),
+    (
+        "chebyshev",
+        TransformerRequest,
+        designer.chebyshev,
+        "Chebyshev (equal ripple)",
+        "Equal-ripple multi-section transformer; N, ripple, both, or neither (spec 0.1).",
+    ),
+    (
+        "taper",
+        TaperRequest,
+        designer.tapered,
+        "Tapered line",
+        "Exponential, triangular or Klopfenstein taper, cut into equal steps and checked exactly.",
+    ),
+]
+
+
 def build_router(settings: Settings) -> APIRouter:
     """The /v1/transformers routes, with their request examples."""
     options = settings.design_options()
     router = APIRouter(prefix="/v1/transformers", tags=["transformers"], responses=error_responses())
-
-    def examples(name: str) -> dict:
-        return request_examples(settings.examples_dir, f"transformers/{name}")
-
-    quarter_wave_examples = examples("quarter-wave")
-    binomial_examples = examples("binomial")
-    chebyshev_examples = examples("chebyshev")
-    taper_examples = examples("taper")
-    compare_examples = examples("compare")
-    exports = export_responses()
 
     def guarded(request: MatchRequest, count: int = 1) -> None:
         raw = request.model_dump()
         check_sizes(raw, settings)
         check_budget(count * design_seconds(raw), settings, "body")
 
-    @router.post(
-        "/quarter-wave", response_model=TransformerDesign, summary="Quarter-wave transformer", responses=exports
-    )
-    def quarter_wave(
-        request: Annotated[QuarterWaveRequest, Body(openapi_examples=quarter_wave_examples)], fmt: Format
-    ) -> TransformerDesign | Response:
-        """One section of impedance sqrt(Z0 RL), a quarter wave long at the band centre."""
-        guarded(request)
-        return deliver(request, designer.quarter_wave(request, options), fmt, "quarter-wave")
+    def add_design_route(path: str, model: type[MatchRequest], design: DesignFunction, summary: str, text: str) -> None:
+        examples = request_examples(settings.examples_dir, f"transformers/{path}")
 
-    @router.post("/binomial", response_model=TransformerDesign, summary="Binomial (maximally flat)", responses=exports)
-    def binomial(
-        request: Annotated[TransformerRequest, Body(openapi_examples=binomial_examples)], fmt: Format
-    ) -> TransformerDesign | Response:
-        """Maximally flat multi-section transformer; N given, or the smallest N meeting the spec."""
-        guarded(request)
-        return deliver(request, designer.binomial(request, options), fmt, "binomial")
+        def endpoint(
+            request: Annotated[model, Body(openapi_examples=examples)], fmt: Format
+        ) -> TransformerDesign | Response:
+            guarded(request)
+            name = f"{request.profile}-taper" if path == "taper" else path
+            return deliver(request, design(request, options), fmt, name)
 
-    @router.post("/chebyshev", response_model=TransformerDesign, summary="Chebyshev (equal ripple)", responses=exports)
-    def chebyshev(
-        request: Annotated[TransformerRequest, Body(openapi_examples=chebyshev_examples)], fmt: Format
-    ) -> TransformerDesign | Response:
-        """Equal-ripple multi-section transformer; N, ripple, both, or neither (spec 0.1)."""
-        guarded(request)
-        return deliver(request, designer.chebyshev(request, options), fmt, "chebyshev")
+        router.add_api_route(
+            f"/{path}",
+            endpoint,
+            methods=["POST"],
+            response_model=TransformerDesign,
+            summary=summary,
+            description=text,
+            responses=export_responses(),
+            name=path,
+        )
 
-    @router.post("/taper", response_model=TransformerDesign, summary="Tapered line", responses=exports)
-    def taper(
-        request: Annotated[TaperRequest, Body(openapi_examples=taper_examples)], fmt: Format
-    ) -> TransformerDesign | Response:
-        """Exponential, triangular or Klopfenstein taper, cut into equal steps and checked exactly."""
-        guarded(request)
-        return deliver(request, designer.tapered(request, options), fmt, f"{request.profile}-taper")
+    for route in DESIGN_ROUTES:
+        add_design_route(*route)
+
+    compare_examples = request_examples(settings.examples_dir, "transformers/compare")
 
     @router.post("/compare", response_model=Comparison, summary="Every method side by side")
     def compare(request: Annotated[CompareRequest, Body(openapi_examples=compare_examples)]) -> Comparison:
