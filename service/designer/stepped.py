@@ -53,18 +53,12 @@ def plan_quarter_wave(request: QuarterWaveRequest) -> Plan:
 
 def plan_binomial(request: TransformerRequest) -> Plan:
     """Maximally flat design, by section count or by spec."""
-    target = target_for(request)
-    theory = design.THEORIES[request.theory]
     spec = request.spec_reflection
-    source, load, edge = request.source_ohm, target.resistance_ohm, target.edge_angle_rad
-    return Plan(
+    return _multisection_plan(
         "binomial",
-        request.theory,
         request,
-        target,
-        lambda sections: design.binomial(source, load, sections, edge, spec, theory),
-        lambda: design.binomial_sections_for(source, load, edge, spec, theory),
-        request.sections,
+        lambda source, load, edge, theory, sections: design.binomial(source, load, sections, edge, spec, theory),
+        lambda source, load, edge, theory: design.binomial_sections_for(source, load, edge, spec, theory),
     )
 
 
@@ -74,17 +68,33 @@ def plan_chebyshev(request: TransformerRequest) -> Plan:
     Sections only: ripple set by the band. Spec only: smallest N, edges on the band limits.
     Both: that N and ripple, the band following from them.
     """
+    ripple = request.max_reflection if request.sections is not None else None
+    spec = request.spec_reflection
+    return _multisection_plan(
+        "chebyshev",
+        request,
+        lambda source, load, edge, theory, sections: design.chebyshev(source, load, sections, edge, ripple, theory),
+        lambda source, load, edge, theory: design.chebyshev_sections_for(source, load, edge, spec, theory),
+    )
+
+
+def _multisection_plan(
+    method: str,
+    request: TransformerRequest,
+    synthesize: Callable[..., design.SteppedDesign],
+    count: Callable[..., int],
+) -> Plan:
+    """A plan whose synthesis and count take (source, target resistance, edge angle, theory[, N])."""
     target = target_for(request)
     theory = design.THEORIES[request.theory]
-    ripple = request.max_reflection if request.sections is not None else None
-    source, load, edge = request.source_ohm, target.resistance_ohm, target.edge_angle_rad
+    inputs = (request.source_ohm, target.resistance_ohm, target.edge_angle_rad, theory)
     return Plan(
-        "chebyshev",
+        method,
         request.theory,
         request,
         target,
-        lambda sections: design.chebyshev(source, load, sections, edge, ripple, theory),
-        lambda: design.chebyshev_sections_for(source, load, edge, request.spec_reflection, theory),
+        lambda sections: synthesize(*inputs, sections),
+        lambda: count(*inputs),
         request.sections,
     )
 
