@@ -11,7 +11,11 @@ import os
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from service.designer.lines import DesignOptions
+from service.designer.lines import DEFAULT_MIN_FEATURE_M, DesignOptions
+from service.schemas.bulk import DEFAULT_MAX_SWEEP_DESIGNS
+from service.schemas.common import MAX_POINTS
+from service.schemas.tapers import MAX_SEGMENTS
+from service.schemas.tolerance import MAX_TRIALS
 
 PROJECT_ROOT = Path(__file__).resolve().parent.parent
 
@@ -24,13 +28,13 @@ class Settings:
     cors_allow_origins: list[str] = field(default_factory=list)
     frame_ancestors: list[str] = field(default_factory=list)
     api_key: str = ""  # empty: no key needed (a lab bench); set it for shared deployments
-    min_feature_m: float = 1e-4
+    min_feature_m: float = DEFAULT_MIN_FEATURE_M
     max_body_bytes: int = 4 * 1024 * 1024
-    max_points: int = 10001
-    max_segments: int = 1024
-    max_trials: int = 20000
+    max_points: int = MAX_POINTS  # settings may lower the schema caps, never raise them
+    max_segments: int = MAX_SEGMENTS
+    max_trials: int = MAX_TRIALS
     max_batch_items: int = 10_000
-    max_sweep_designs: int = 100_000
+    max_sweep_designs: int = DEFAULT_MAX_SWEEP_DESIGNS
     compute_budget_s: float = 20.0  # estimated compute one request may take, in seconds
 
     def design_options(self) -> DesignOptions:

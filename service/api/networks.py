@@ -8,7 +8,7 @@ from fastapi.responses import Response
 from service import designer
 from service.api.delivery import OutputFormat, deliver, export_responses, output_format
 from service.api.documented import error_responses
-from service.designer.budget import check_budget, check_sizes, design_seconds
+from service.designer.budget import check_design
 from service.examples import request_examples
 from service.schemas.networks import AnalyzeRequest
 from service.schemas.results import AnalysisResult
@@ -29,9 +29,7 @@ def build_router(settings: Settings) -> APIRouter:
         fmt: Annotated[OutputFormat, Depends(output_format)],
     ) -> AnalysisResult | Response:
         """Verify a list of sections (e.g. a design rounded to buildable impedances) by the exact cascade."""
-        raw = request.model_dump()
-        check_sizes(raw, settings)
-        check_budget(design_seconds(raw | {"sections": len(request.sections)}), settings, "body")
+        check_design(request.model_dump() | {"sections": len(request.sections)}, settings)
         return deliver(request, designer.analyze(request, options), fmt, "analysis")
 
     return router

@@ -7,8 +7,7 @@ from fastapi.responses import Response
 
 from service import designer
 from service.api.documented import error_responses
-from service.designer.budget import check_budget, check_sizes, design_seconds, yield_seconds
-from service.errors import UnmeetableRequestError
+from service.designer.budget import check_design, check_yield
 from service.examples import request_examples
 from service.formats.svg import transformer_svg
 from service.schemas.items import DesignItem
@@ -33,9 +32,7 @@ def build_router(settings: Settings) -> APIRouter:
     )
     def drawing(item: Annotated[DesignItem, Body(openapi_examples=drawing_examples)]) -> Response:
         """Design with the named method and draw it: strip steps from above, or the coax in cut-away."""
-        raw = item.model_dump()
-        check_sizes(raw, settings)
-        check_budget(design_seconds(raw), settings, "body")
+        check_design(item.model_dump(), settings)
         design = designer.design_item(item, options)
         outer = getattr(item.medium, "outer_diameter_m", None)
         title = f"Stepline {item.method} transformer, {design.medium}, {len(design.sections)} sections"
@@ -44,11 +41,7 @@ def build_router(settings: Settings) -> APIRouter:
     @router.post("/yield", response_model=YieldResult, summary="Monte Carlo yield under tolerances")
     def tolerance_yield(request: Annotated[YieldRequest, Body(openapi_examples=yield_examples)]) -> YieldResult:
         """Design, then perturb widths, etch, permittivity and height over seeded trials."""
-        raw = request.design.model_dump()
-        check_sizes(raw, settings, "design.")
-        if request.trials > settings.max_trials:
-            raise UnmeetableRequestError("trials", f"at most {settings.max_trials} allowed on this server")
-        check_budget(yield_seconds(raw, request.trials), settings, "trials")
+        check_yield(request.design.model_dump(), request.trials, settings)
         return designer.yield_analysis(request, options)
 
     return router

@@ -9,7 +9,7 @@ from fastapi.responses import Response
 from service import designer
 from service.api.delivery import OutputFormat, deliver, export_responses, output_format
 from service.api.documented import error_responses
-from service.designer.budget import check_budget, check_sizes, design_seconds
+from service.designer.budget import check_design
 from service.examples import request_examples
 from service.schemas.comparison import CompareRequest, Comparison
 from service.schemas.results import TransformerDesign
@@ -60,18 +60,13 @@ def build_router(settings: Settings) -> APIRouter:
     options = settings.design_options()
     router = APIRouter(prefix="/v1/transformers", tags=["transformers"], responses=error_responses())
 
-    def guarded(request: MatchRequest, count: int = 1) -> None:
-        raw = request.model_dump()
-        check_sizes(raw, settings)
-        check_budget(count * design_seconds(raw), settings, "body")
-
     def add_design_route(path: str, model: type[MatchRequest], design: DesignFunction, summary: str, text: str) -> None:
         examples = request_examples(settings.examples_dir, f"transformers/{path}")
 
         def endpoint(
             request: Annotated[model, Body(openapi_examples=examples)], fmt: Format
         ) -> TransformerDesign | Response:
-            guarded(request)
+            check_design(request.model_dump(), settings)
             name = f"{request.profile}-taper" if path == "taper" else path
             return deliver(request, design(request, options), fmt, name)
 
@@ -94,7 +89,7 @@ def build_router(settings: Settings) -> APIRouter:
     @router.post("/compare", response_model=Comparison, summary="Every method side by side")
     def compare(request: Annotated[CompareRequest, Body(openapi_examples=compare_examples)]) -> Comparison:
         """All applicable methods and theories for one request, ranked for meeting the spec shortest."""
-        guarded(request, count=8)
+        check_design(request.model_dump(), settings, count=8)
         return designer.compare(request, options)
 
     return router

@@ -12,11 +12,13 @@ from typing import Any
 
 from service.errors import UnmeetableRequestError
 from service.settings import Settings
+from service.verification import MAX_CHECK_POINTS, MIN_CHECK_POINTS, PEAKS_REFINED, REFINE_ROUNDS
+from service.verification import REFINE_POINTS as VERIFY_REFINE_POINTS
 
 PER_DESIGN_S = 1.5e-3
 PER_SECTION_POINT_S = 4e-8
-CHECK_POINTS_RANGE = (257, 20001)
-REFINE_POINTS = 6 * 2 * 17  # the few highest peaks, each refined in two rounds
+CHECK_POINTS_RANGE = (MIN_CHECK_POINTS, MAX_CHECK_POINTS)
+REFINE_POINTS = PEAKS_REFINED * REFINE_ROUNDS * VERIFY_REFINE_POINTS
 PHYSICAL_MEDIUM_FACTOR = 3.0
 SPEC_DRIVEN_FACTOR = 2.0
 TAPER_FACTOR = 4.0
@@ -75,3 +77,17 @@ def check_sizes(item: dict[str, Any], settings: Settings, prefix: str = "") -> N
         value = item.get(name)
         if isinstance(value, int) and value > limit:
             raise UnmeetableRequestError(f"{prefix}{name}", f"at most {limit} allowed on this server; got {value}")
+
+
+def check_design(item: dict[str, Any], settings: Settings, count: int = 1) -> None:
+    """Sizes and budget of a request that makes `count` designs like `item`."""
+    check_sizes(item, settings)
+    check_budget(count * design_seconds(item), settings, "body")
+
+
+def check_yield(design: dict[str, Any], trials: int, settings: Settings) -> None:
+    """Sizes, trial count and budget of a yield analysis."""
+    check_sizes(design, settings, "design.")
+    if trials > settings.max_trials:
+        raise UnmeetableRequestError("trials", f"at most {settings.max_trials} allowed on this server")
+    check_budget(yield_seconds(design, trials), settings, "trials")

@@ -9,8 +9,7 @@ import numpy as np
 
 from service.media.base import LineParameters, RealizationError
 from service.media.conductors import ETA_0, LineLosses
-
-C0 = 299_792_458.0
+from service.network import SPEED_OF_LIGHT_M_PER_S as C0
 
 
 @dataclass(frozen=True)

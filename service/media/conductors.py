@@ -8,6 +8,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.media.base import LineParameters
+from service.network import SPEED_OF_LIGHT_M_PER_S
 
 MU_0 = 4e-7 * np.pi  # H/m (the SI value to the precision that matters here)
 ETA_0 = 376.730313668  # ohm, impedance of free space
@@ -26,7 +27,7 @@ def roughness_factor(frequency_hz: np.ndarray, conductivity_s_per_m: float, roug
 
 def tem_dielectric_attenuation(frequency_hz: np.ndarray, eps_r: float, loss_tangent: float) -> np.ndarray:
     """alpha_d = k tan(delta) / 2 (Np/m) for a line filled with the dielectric."""
-    k = 2.0 * np.pi * np.asarray(frequency_hz) * np.sqrt(eps_r) / 299_792_458.0
+    k = 2.0 * np.pi * np.asarray(frequency_hz) * np.sqrt(eps_r) / SPEED_OF_LIGHT_M_PER_S
     return 0.5 * k * loss_tangent
 
 

@@ -14,6 +14,7 @@ import numpy as np
 
 from service.media.base import LineParameters, invert_monotone
 from service.media.conductors import ETA_0, LineLosses
+from service.network import SPEED_OF_LIGHT_M_PER_S as C0
 
 HJ_U_RANGE = (0.01, 100.0)
 KJ_U_RANGE = (0.1, 100.0)
@@ -88,9 +89,6 @@ def dispersive_line(
     r16 = 1.0 + 0.0503 * eps_r**2 * r11 * (1.0 - np.exp(-((u / 15.0) ** 6)))
     r17 = r7 * (1.0 - 1.1241 * r12 / r16 * np.exp(-0.026 * fn**1.15656 - r15))
     return z0 * (r13 / r14) ** r17, eps_f
-
-
-C0 = 299_792_458.0
 
 
 def transverse_resonance_hz(width_m: np.ndarray, height_m: float, eps_r: float) -> np.ndarray:

@@ -15,8 +15,8 @@ import numpy as np
 
 from service.media.base import LineParameters, invert_monotone
 from service.media.conductors import LineLosses
+from service.network import SPEED_OF_LIGHT_M_PER_S as C0
 
-C0 = 299_792_458.0
 WIDE_LIMIT = 0.35
 
 

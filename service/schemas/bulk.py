@@ -10,7 +10,6 @@ from service.schemas.common import StrictModel
 from service.schemas.errors import ErrorBody
 from service.schemas.results import PredictedFigures, ResponseCurve, SectionResult, VerifiedFigures
 
-DEFAULT_MAX_BATCH_ITEMS = 10_000
 DEFAULT_MAX_SWEEP_DESIGNS = 100_000
 
 
