@@ -64,6 +64,16 @@ def test_taper_segment_and_trial_limits():
     assert trials.status_code == 422 and trials.json()["problems"][0]["field"] == "trials"
 
 
+def test_only_refined_loads_are_charged_the_refinement_time():
+    # A validated request lists every load field, unset ones as None; only a set one may count.
+    budget = {"compute_budget_s": 1.0}
+    plain = client_with(**budget).post(DESIGN, json=BASE_REQUEST | {"sections": 3})
+    assert plain.status_code == 200
+    circuit = {"circuit": {"kind": "series-rl", "resistance_ohm": 20, "inductance_h": 1e-9}}
+    refined = client_with(**budget).post(DESIGN, json=BASE_REQUEST | {"sections": 3, "load": circuit})
+    assert refined.status_code == 422 and refined.json()["problems"][0]["field"] == "body"
+
+
 def test_sweep_and_batch_budgets():
     client = client_with(compute_budget_s=0.05)
     sweep = {

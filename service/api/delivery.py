@@ -4,6 +4,7 @@ from typing import Annotated, Any, Literal
 
 from fastapi import Header, Query
 from fastapi.responses import Response
+from pydantic import BaseModel
 
 from service.designer.exports import two_port
 from service.formats.csv_table import response_csv
@@ -16,7 +17,7 @@ CSV_TYPE = "text/csv"
 OutputFormat = Literal["json", "touchstone", "csv"]
 
 
-def output_format(
+async def output_format(
     format: Annotated[
         OutputFormat | None,
         Query(description="json (default), touchstone (a two-port file) or csv (the response curve)."),
@@ -47,7 +48,16 @@ def export_responses() -> dict[int | str, dict[str, Any]]:
     }
 
 
-def deliver(request: MatchRequest, design: AnalysisResult, fmt: OutputFormat, name: str) -> AnalysisResult | Response:
+def json_response(result: BaseModel) -> Response:
+    """A result serialized straight to JSON bytes.
+
+    Routes still declare their response model for the schema; returning the bytes skips FastAPI's
+    re-validation of a result that the model already validated when it was built.
+    """
+    return Response(result.model_dump_json(), media_type="application/json")
+
+
+def deliver(request: MatchRequest, design: AnalysisResult, fmt: OutputFormat, name: str) -> Response:
     """The design in the chosen format."""
     if fmt == "csv":
         return Response(
@@ -66,4 +76,4 @@ def deliver(request: MatchRequest, design: AnalysisResult, fmt: OutputFormat, na
             media_type=TOUCHSTONE_TYPE,
             headers={"Content-Disposition": f'attachment; filename="{name}.s2p"'},
         )
-    return design
+    return json_response(design)

@@ -8,6 +8,7 @@ from fastapi.responses import Response
 from service import designer
 from service.api.delivery import OutputFormat, deliver, export_responses, output_format
 from service.api.documented import error_responses
+from service.api.scheduling import run_sized
 from service.designer.budget import check_design
 from service.examples import request_examples
 from service.schemas.networks import AnalyzeRequest
@@ -24,12 +25,12 @@ def build_router(settings: Settings) -> APIRouter:
     @router.post(
         "/analyze", response_model=AnalysisResult, summary="Check your own sections", responses=export_responses()
     )
-    def analyze(
+    async def analyze(
         request: Annotated[AnalyzeRequest, Body(openapi_examples=examples)],
         fmt: Annotated[OutputFormat, Depends(output_format)],
-    ) -> AnalysisResult | Response:
+    ) -> Response:
         """Verify a list of sections (e.g. a design rounded to buildable impedances) by the exact cascade."""
-        check_design(request.model_dump() | {"sections": len(request.sections)}, settings)
-        return deliver(request, designer.analyze(request, options), fmt, "analysis")
+        seconds = check_design(request.model_dump() | {"sections": len(request.sections)}, settings)
+        return deliver(request, await run_sized(lambda: designer.analyze(request, options), seconds), fmt, "analysis")
 
     return router

@@ -9,6 +9,7 @@ from fastapi.responses import Response
 from service import designer
 from service.api.delivery import OutputFormat, deliver, export_responses, output_format
 from service.api.documented import error_responses
+from service.api.scheduling import run_sized
 from service.designer.budget import check_design
 from service.examples import request_examples
 from service.schemas.comparison import CompareRequest, Comparison
@@ -63,12 +64,10 @@ def build_router(settings: Settings) -> APIRouter:
     def add_design_route(path: str, model: type[MatchRequest], design: DesignFunction, summary: str, text: str) -> None:
         examples = request_examples(settings.examples_dir, f"transformers/{path}")
 
-        def endpoint(
-            request: Annotated[model, Body(openapi_examples=examples)], fmt: Format
-        ) -> TransformerDesign | Response:
-            check_design(request.model_dump(), settings)
+        async def endpoint(request: Annotated[model, Body(openapi_examples=examples)], fmt: Format) -> Response:
+            seconds = check_design(request.model_dump(), settings)
             name = f"{request.profile}-taper" if path == "taper" else path
-            return deliver(request, design(request, options), fmt, name)
+            return deliver(request, await run_sized(lambda: design(request, options), seconds), fmt, name)
 
         router.add_api_route(
             f"/{path}",

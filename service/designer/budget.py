@@ -49,7 +49,7 @@ def design_seconds(item: dict[str, Any]) -> float:
     elif item.get("sections") is None:
         seconds *= SPEC_DRIVEN_FACTOR
     load = item.get("load")
-    if isinstance(load, dict) and any(k in load for k in ("circuit", "measured", "touchstone")):
+    if isinstance(load, dict) and any(load.get(k) is not None for k in ("circuit", "measured", "touchstone")):
         seconds += REFINEMENT_S
     return seconds
 
@@ -79,10 +79,12 @@ def check_sizes(item: dict[str, Any], settings: Settings, prefix: str = "") -> N
             raise UnmeetableRequestError(f"{prefix}{name}", f"at most {limit} allowed on this server; got {value}")
 
 
-def check_design(item: dict[str, Any], settings: Settings, count: int = 1) -> None:
-    """Sizes and budget of a request that makes `count` designs like `item`."""
+def check_design(item: dict[str, Any], settings: Settings, count: int = 1) -> float:
+    """Sizes and budget of a request that makes `count` designs like `item`; its estimated seconds."""
     check_sizes(item, settings)
-    check_budget(count * design_seconds(item), settings, "body")
+    seconds = count * design_seconds(item)
+    check_budget(seconds, settings, "body")
+    return seconds
 
 
 def check_yield(design: dict[str, Any], trials: int, settings: Settings) -> None:
