@@ -69,19 +69,20 @@ def _lossless_cascade(impedances: np.ndarray, lengths: np.ndarray) -> Abcd:
 
     A lossless line's matrix is [[cos, j Z sin], [j sin / Z, cos]]; products of such matrices keep
     A and D real and B and C imaginary, so only the real numbers a, b/j, c/j, d are carried.
+    The first section's matrix starts the product (every line has at least one section).
     """
-    shape = lengths.shape[:-1]
-    a, b, c, d = np.ones(shape), np.zeros(shape), np.zeros(shape), np.ones(shape)
     cosines, sines = np.cos(lengths), np.sin(lengths)
-    for index in range(lengths.shape[-1]):
-        z = impedances[..., index]
+    z_sines, sines_over_z = sines * impedances, sines / impedances
+    a, b, c, d = cosines[..., 0], z_sines[..., 0], sines_over_z[..., 0], cosines[..., 0]
+    for index in range(1, lengths.shape[-1]):
         cos_t = cosines[..., index]
-        sin_t = sines[..., index]
+        z_sin = z_sines[..., index]
+        sin_over_z = sines_over_z[..., index]
         a, b, c, d = (
-            a * cos_t - b * sin_t / z,
-            a * sin_t * z + b * cos_t,
-            c * cos_t + d * sin_t / z,
-            d * cos_t - c * sin_t * z,
+            a * cos_t - b * sin_over_z,
+            a * z_sin + b * cos_t,
+            c * cos_t + d * sin_over_z,
+            d * cos_t - c * z_sin,
         )
     return Abcd(a + 0j, 1j * b, 1j * c, d + 0j)
 

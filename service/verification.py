@@ -50,13 +50,21 @@ class LineCascade:
 
     def reflection(self, frequency_hz: np.ndarray) -> np.ndarray:
         """|reflection| seen from the source line at each frequency."""
-        z_in = network.input_impedance(self.abcd(frequency_hz), self.load.impedance_ohm(frequency_hz))
-        return np.abs(network.reflection(z_in, self.source_ohm))
+        return self.response(frequency_hz, with_losses=False)[0]
 
-    def insertion_loss_db(self, frequency_hz: np.ndarray) -> np.ndarray:
-        """-10 log10 of the power reaching the load over the power available from the source."""
-        gain = network.transducer_gain(self.abcd(frequency_hz), self.source_ohm, self.load.impedance_ohm(frequency_hz))
-        return -10.0 * np.log10(np.maximum(gain, 1e-30))
+    def response(self, frequency_hz: np.ndarray, with_losses: bool) -> tuple[np.ndarray, np.ndarray | None]:
+        """|reflection| at each frequency and, if asked, the insertion loss in dB, from one cascade.
+
+        The insertion loss is -10 log10 of the power reaching the load over the power available
+        from the source.
+        """
+        abcd = self.abcd(frequency_hz)
+        load = self.load.impedance_ohm(frequency_hz)
+        magnitude = np.abs(network.reflection(network.input_impedance(abcd, load), self.source_ohm))
+        if not with_losses:
+            return magnitude, None
+        gain = network.transducer_gain(abcd, self.source_ohm, load)
+        return magnitude, -10.0 * np.log10(np.maximum(gain, 1e-30))
 
     def eps_eff_at(self, frequency_hz: float) -> np.ndarray:
         """Each section's effective permittivity at one frequency."""
@@ -142,14 +150,14 @@ def _grids(starts: np.ndarray, stops: np.ndarray, count: int, squeeze: bool) -> 
     return grid[0] if squeeze else grid
 
 
-def worst_reflections(line: LineCascade, grid: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """Largest |reflection| over each row of the frequency grid (..., F), and where it occurs.
 
-    A dense grid samples every lobe of the response; the highest few local maxima (band edges
-    included) are then each pinned down by two rounds of finer grids between their neighbours,
-    since near-equal ripple peaks can swap order between the coarse samples and the true peaks.
+    `values` is |reflection| on the grid, which samples every lobe of the response; the highest few
+    local maxima (band edges included) are then each pinned down by two rounds of finer grids
+    between their neighbours, since near-equal ripple peaks can swap order between the coarse
+    samples and the true peaks.
     """
-    values = line.reflection(grid)
     peaks = np.ones(values.shape, dtype=bool)
     peaks[..., 1:-1] = (values[..., 1:-1] >= values[..., :-2]) & (values[..., 1:-1] >= values[..., 2:])
     peaks[..., 0] = values[..., 0] >= values[..., 1]
@@ -173,28 +181,62 @@ def worst_reflections(line: LineCascade, grid: np.ndarray) -> tuple[np.ndarray, 
 
 def worst_reflection(line: LineCascade, start_hz: float, stop_hz: float) -> tuple[float, float]:
     """Largest |reflection| of one line over [start, stop] and where it occurs."""
-    worst, where = worst_reflections(line, np.linspace(start_hz, stop_hz, check_grid_points(line, stop_hz)))
+    grid = np.linspace(start_hz, stop_hz, check_grid_points(line, stop_hz))
+    worst, where = worst_reflections(line, grid, line.reflection(grid))
     return float(worst), float(where)
 
 
-def verified_figures_many(
-    lines: list[LineCascade], starts: np.ndarray, stops: np.ndarray, specs: np.ndarray
-) -> list[VerifiedFigures]:
-    """The verified block of every line, stacked where the lines allow."""
-    figures: list[VerifiedFigures | None] = [None] * len(lines)
-    for indices in stacked_groups(lines):
-        line = _evaluate(lines, indices)
-        single = len(indices) == 1
-        count = max(check_grid_points(lines[i], stops[i]) for i in indices)
-        grid = _grids(starts[indices], stops[indices], count, single)
-        worst, where = (np.atleast_1d(a) for a in worst_reflections(line, grid))
-        losses = [None] * len(indices)
-        if line.medium.lossy:
-            loss_grid = _grids(starts[indices], stops[indices], MIN_CHECK_POINTS, single)
-            losses = np.atleast_1d(np.max(line.insertion_loss_db(loss_grid), axis=-1)).tolist()
-        for position, index in enumerate(indices):
-            figures[index] = _figures(lines[index], worst[position], where[position], specs[index], losses[position])
-    return figures
+def aligned_count(minimum: int, points: int) -> int:
+    """The smallest grid size >= minimum whose evenly spread grid contains every point of a `points` grid."""
+    steps = points - 1
+    return steps * math.ceil((minimum - 1) / steps) + 1
+
+
+def check_many(
+    lines: list[LineCascade], starts: np.ndarray, stops: np.ndarray, specs: np.ndarray, points: np.ndarray
+) -> list[tuple[VerifiedFigures, ResponseCurve]]:
+    """The verified block and the response curve of every line, stacked where the lines allow.
+
+    One cascade evaluation serves both: the check grid is chosen to contain the curve's
+    frequencies, so the curve is read off it.
+    """
+    results: list[tuple[VerifiedFigures, ResponseCurve] | None] = [None] * len(lines)
+    for group in stacked_groups(lines):
+        by_points: dict[int, list[int]] = {}
+        for index in group:
+            by_points.setdefault(int(points[index]), []).append(index)
+        for count, indices in by_points.items():
+            for index, result in zip(indices, _check_group(lines, indices, starts, stops, specs, count), strict=True):
+                results[index] = result
+    return results
+
+
+def _check_group(
+    lines: list[LineCascade], indices: list[int], starts: np.ndarray, stops: np.ndarray, specs: np.ndarray, points: int
+) -> list[tuple[VerifiedFigures, ResponseCurve]]:
+    line = _evaluate(lines, indices)
+    single = len(indices) == 1
+    minimum = max(check_grid_points(lines[i], stops[i]) for i in indices)
+    count = aligned_count(minimum, points)
+    grid = _grids(starts[indices], stops[indices], count, single)
+    values, losses = line.response(grid, with_losses=line.medium.lossy)
+    worst, where = (np.atleast_1d(a) for a in worst_reflections(line, grid, values))
+    losses = None if losses is None else np.atleast_2d(losses)
+    every = (count - 1) // (points - 1)
+    grid, values = np.atleast_2d(grid), np.atleast_2d(values)
+    results = []
+    for position, index in enumerate(indices):
+        max_loss = None if losses is None else float(np.max(losses[position]))
+        figures = _figures(lines[index], worst[position], where[position], specs[index], max_loss)
+        magnitudes = values[position, ::every]
+        curve = ResponseCurve(
+            frequency_hz=grid[position, ::every].tolist(),
+            reflection_magnitude=magnitudes.tolist(),
+            return_loss_db=return_loss_db(magnitudes).tolist(),
+            insertion_loss_db=None if losses is None else losses[position, ::every].tolist(),
+        )
+        results.append((figures, curve))
+    return results
 
 
 def _figures(line: LineCascade, worst: float, where: float, spec: float, max_loss: float | None) -> VerifiedFigures:
@@ -212,40 +254,13 @@ def _figures(line: LineCascade, worst: float, where: float, spec: float, max_los
     )
 
 
-def verified_figures(line: LineCascade, start_hz: float, stop_hz: float, spec_reflection: float) -> VerifiedFigures:
-    """The verified block of one line: worst reflection and its derived figures, judged against the spec."""
-    return verified_figures_many([line], np.array([start_hz]), np.array([stop_hz]), np.array([spec_reflection]))[0]
-
-
-def response_curves_many(
-    lines: list[LineCascade], starts: np.ndarray, stops: np.ndarray, points: np.ndarray
-) -> list[ResponseCurve]:
-    """The exact response of every line at its evenly spread frequencies, stacked where shapes allow."""
-    curves: list[ResponseCurve | None] = [None] * len(lines)
-    for group in stacked_groups(lines):
-        by_points: dict[int, list[int]] = {}
-        for index in group:
-            by_points.setdefault(int(points[index]), []).append(index)
-        for count, indices in by_points.items():
-            line = _evaluate(lines, indices)
-            single = len(indices) == 1
-            grid = _grids(starts[indices], stops[indices], count, single)
-            magnitudes = np.atleast_2d(line.reflection(grid))
-            losses = np.atleast_2d(line.insertion_loss_db(grid)) if line.medium.lossy else None
-            grid = np.atleast_2d(grid)
-            for position, index in enumerate(indices):
-                curves[index] = ResponseCurve(
-                    frequency_hz=grid[position].tolist(),
-                    reflection_magnitude=magnitudes[position].tolist(),
-                    return_loss_db=return_loss_db(magnitudes[position]).tolist(),
-                    insertion_loss_db=None if losses is None else losses[position].tolist(),
-                )
-    return curves
-
-
-def response_curve(line: LineCascade, start_hz: float, stop_hz: float, points: int) -> ResponseCurve:
-    """The exact response of one line at evenly spread frequencies, both band limits included."""
-    return response_curves_many([line], np.array([start_hz]), np.array([stop_hz]), np.array([points]))[0]
+def check(
+    line: LineCascade, start_hz: float, stop_hz: float, spec_reflection: float, points: int
+) -> tuple[VerifiedFigures, ResponseCurve]:
+    """The verified block of one line, judged against the spec, and its response curve."""
+    return check_many(
+        [line], np.array([start_hz]), np.array([stop_hz]), np.array([spec_reflection]), np.array([points])
+    )[0]
 
 
 def junction_results(line: LineCascade, impedances_ohm: np.ndarray) -> list[JunctionResult]:

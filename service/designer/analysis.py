@@ -8,7 +8,7 @@ from service.designer.lines import DesignOptions, checked_blocks, realize
 from service.designer.reporting import bode_fano_warnings, spec_warnings
 from service.schemas.networks import AnalyzeRequest
 from service.schemas.results import AnalysisResult
-from service.verification import response_curve, verified_figures
+from service.verification import check
 
 
 def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> AnalysisResult:
@@ -27,8 +27,8 @@ def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> An
     if np.any(given):
         physical = np.array([s.length_m or 0.0 for s in request.sections])
         line = line.with_sections(line.geometry, np.where(given, physical, line.lengths_m))
-    verified = verified_figures(line, request.band.start_hz, request.band.stop_hz, request.spec_reflection)
-    curve = response_curve(line, request.band.start_hz, request.band.stop_hz, request.points)
+    band = request.band
+    verified, curve = check(line, band.start_hz, band.stop_hz, request.spec_reflection, request.points)
     blocks = checked_blocks(line, request, verified, curve, options)
     warnings = [*blocks.pop("medium_notes"), *spec_warnings(verified)]
     warnings += bode_fano_warnings(blocks["bode_fano"], request.spec_reflection)

@@ -28,7 +28,7 @@ from service.schemas.results import (
     VerifiedFigures,
 )
 from service.schemas.transformers import MatchRequest
-from service.verification import LineCascade, response_curves_many, verified_figures, verified_figures_many
+from service.verification import LineCascade, check, check_many
 
 THEORY_METHODS = ("binomial", "chebyshev")  # the methods a request may switch to the exact theory
 
@@ -67,25 +67,25 @@ def finish_many(jobs: list[Job], options: DesignOptions | None = None) -> list[T
     starts = np.array([j.request.band.start_hz for j in jobs])
     stops = np.array([j.request.band.stop_hz for j in jobs])
     specs = np.array([j.request.spec_reflection for j in jobs])
-    verified = verified_figures_many(lines, starts, stops, specs)
-    refinements: list[RefinementFigures | None] = [None] * len(jobs)
-    for index, job in enumerate(jobs):
-        if job.target.load.frequency_dependent:
-            lines[index], refinements[index] = _refine(lines[index], job.request, verified[index])
-            verified[index] = refinements[index].after
     points = np.array([j.request.points for j in jobs])
-    curves = response_curves_many(lines, starts, stops, points)
-    return [
-        _assemble(job, line, figures, refinement, curve, options)
-        for job, line, figures, refinement, curve in zip(jobs, lines, verified, refinements, curves, strict=True)
-    ]
+    results = []
+    checks = check_many(lines, starts, stops, specs, points)
+    for job, line, (figures, curve) in zip(jobs, lines, checks, strict=True):
+        refinement = None
+        if job.target.load.frequency_dependent:
+            line, refinement, curve = _refine(line, job.request, figures)
+            figures = refinement.after
+        results.append(_assemble(job, line, figures, refinement, curve, options))
+    return results
 
 
-def _refine(line: LineCascade, request: MatchRequest, before: VerifiedFigures) -> tuple[LineCascade, RefinementFigures]:
+def _refine(
+    line: LineCascade, request: MatchRequest, before: VerifiedFigures
+) -> tuple[LineCascade, RefinementFigures, ResponseCurve]:
     band = request.band
     refined = refine_minimax(line, band.start_hz, band.stop_hz, quarter_wave_m(line, band.center_hz))
-    after = verified_figures(refined.after, band.start_hz, band.stop_hz, request.spec_reflection)
-    return refined.after, RefinementFigures(before=before, after=after, iterations=refined.iterations)
+    after, curve = check(refined.after, band.start_hz, band.stop_hz, request.spec_reflection, request.points)
+    return refined.after, RefinementFigures(before=before, after=after, iterations=refined.iterations), curve
 
 
 def _assemble(
