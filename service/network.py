@@ -42,9 +42,9 @@ def cascade(
     impedances = np.asarray(impedances_ohm, dtype=float)
     lengths = np.asarray(electrical_lengths_rad, dtype=float)
     shape = np.broadcast_shapes(impedances.shape, lengths.shape)
-    impedances = np.broadcast_to(impedances, shape)
     if losses_np is None:
-        return _lossless_cascade(impedances, np.broadcast_to(lengths, shape))
+        return _lossless_cascade(impedances, lengths if lengths.shape == shape else np.broadcast_to(lengths, shape))
+    impedances = np.broadcast_to(impedances, shape)
     gamma_l = np.broadcast_to(np.asarray(losses_np) + 1j * lengths, shape)
     cosines, sines = np.cosh(gamma_l), np.sinh(gamma_l)
     a = np.ones(shape[:-1], dtype=complex)

@@ -158,25 +158,28 @@ def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -
     between their neighbours, since near-equal ripple peaks can swap order between the coarse
     samples and the true peaks.
     """
+    lead, count = grid.shape[:-1], grid.shape[-1]
+    grid, values = grid.reshape(-1, count), values.reshape(-1, count)
+    rows = np.arange(grid.shape[0])[:, None]
     peaks = np.ones(values.shape, dtype=bool)
-    peaks[..., 1:-1] = (values[..., 1:-1] >= values[..., :-2]) & (values[..., 1:-1] >= values[..., 2:])
-    peaks[..., 0] = values[..., 0] >= values[..., 1]
-    peaks[..., -1] = values[..., -1] >= values[..., -2]
-    candidates = min(PEAKS_REFINED, grid.shape[-1])
-    top = np.argpartition(-np.where(peaks, values, -np.inf), candidates - 1, axis=-1)[..., :candidates]
-    step = (grid[..., -1:] - grid[..., :1]) / (grid.shape[-1] - 1)
-    centre = np.take_along_axis(grid, top, axis=-1)
-    low, high = grid[..., :1], grid[..., -1:]
+    peaks[:, 1:-1] = (values[:, 1:-1] >= values[:, :-2]) & (values[:, 1:-1] >= values[:, 2:])
+    peaks[:, 0] = values[:, 0] >= values[:, 1]
+    peaks[:, -1] = values[:, -1] >= values[:, -2]
+    candidates = min(PEAKS_REFINED, count)
+    top = np.argpartition(-np.where(peaks, values, -np.inf), candidates - 1, axis=-1)[:, :candidates]
+    step = (grid[:, -1:] - grid[:, :1]) / (count - 1)
+    centre = grid[rows, top]
+    peak_axis = np.arange(candidates)[None, :]
+    low, high = grid[:, :1, None], grid[:, -1:, None]
+    offsets = np.linspace(-1.0, 1.0, REFINE_POINTS)
     for _ in range(REFINE_ROUNDS):
-        offsets = np.linspace(-1.0, 1.0, REFINE_POINTS)
-        fine = np.clip(centre[..., None] + step[..., None] * offsets, low[..., None], high[..., None])
-        fine_values = line.reflection(fine.reshape(*grid.shape[:-1], -1)).reshape(fine.shape)
-        best = np.argmax(fine_values, axis=-1)[..., None]
-        centre = np.take_along_axis(fine, best, axis=-1)[..., 0]
-        worst = np.take_along_axis(fine_values, best, axis=-1)[..., 0]
+        fine = np.clip(centre[..., None] + step[..., None] * offsets, low, high)
+        fine_values = line.reflection(fine.reshape(*lead, -1)).reshape(fine.shape)
+        best = np.argmax(fine_values, axis=-1)
+        centre, worst = fine[rows, peak_axis, best], fine_values[rows, peak_axis, best]
         step = step * 2.0 / (REFINE_POINTS - 1)
-    index = np.argmax(worst, axis=-1)[..., None]
-    return np.take_along_axis(worst, index, axis=-1)[..., 0], np.take_along_axis(centre, index, axis=-1)[..., 0]
+    index = np.argmax(worst, axis=-1)[:, None]
+    return worst[rows, index][:, 0].reshape(lead), centre[rows, index][:, 0].reshape(lead)
 
 
 def worst_reflection(line: LineCascade, start_hz: float, stop_hz: float) -> tuple[float, float]:

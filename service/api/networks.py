@@ -2,11 +2,11 @@
 
 from typing import Annotated
 
-from fastapi import APIRouter, Body, Depends
+from fastapi import APIRouter, Body, Request
 from fastapi.responses import Response
 
 from service import designer
-from service.api.delivery import OutputFormat, deliver, export_responses, output_format
+from service.api.delivery import FormatQuery, deliver, export_responses, output_format
 from service.api.documented import error_responses
 from service.api.scheduling import run_sized
 from service.designer.budget import check_design
@@ -27,10 +27,12 @@ def build_router(settings: Settings) -> APIRouter:
     )
     async def analyze(
         request: Annotated[AnalyzeRequest, Body(openapi_examples=examples)],
-        fmt: Annotated[OutputFormat, Depends(output_format)],
+        http: Request,
+        format: FormatQuery = None,
     ) -> Response:
         """Verify a list of sections (e.g. a design rounded to buildable impedances) by the exact cascade."""
         seconds = check_design(request.model_dump() | {"sections": len(request.sections)}, settings)
-        return deliver(request, await run_sized(lambda: designer.analyze(request, options), seconds), fmt, "analysis")
+        result = await run_sized(lambda: designer.analyze(request, options), seconds)
+        return deliver(request, result, output_format(format, http), "analysis")
 
     return router

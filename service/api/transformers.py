@@ -3,11 +3,11 @@
 from collections.abc import Callable
 from typing import Annotated
 
-from fastapi import APIRouter, Body, Depends
+from fastapi import APIRouter, Body, Request
 from fastapi.responses import Response
 
 from service import designer
-from service.api.delivery import OutputFormat, deliver, export_responses, output_format
+from service.api.delivery import FormatQuery, deliver, export_responses, output_format
 from service.api.documented import error_responses
 from service.api.scheduling import run_sized
 from service.designer.budget import check_design
@@ -17,9 +17,6 @@ from service.schemas.results import TransformerDesign
 from service.schemas.tapers import TaperRequest
 from service.schemas.transformers import MatchRequest, QuarterWaveRequest, TransformerRequest
 from service.settings import Settings
-
-Format = Annotated[OutputFormat, Depends(output_format)]
-
 
 DesignFunction = Callable[..., TransformerDesign]
 
@@ -64,10 +61,13 @@ def build_router(settings: Settings) -> APIRouter:
     def add_design_route(path: str, model: type[MatchRequest], design: DesignFunction, summary: str, text: str) -> None:
         examples = request_examples(settings.examples_dir, f"transformers/{path}")
 
-        async def endpoint(request: Annotated[model, Body(openapi_examples=examples)], fmt: Format) -> Response:
+        async def endpoint(
+            request: Annotated[model, Body(openapi_examples=examples)], http: Request, format: FormatQuery = None
+        ) -> Response:
             seconds = check_design(request.model_dump(), settings)
             name = f"{request.profile}-taper" if path == "taper" else path
-            return deliver(request, await run_sized(lambda: design(request, options), seconds), fmt, name)
+            result = await run_sized(lambda: design(request, options), seconds)
+            return deliver(request, result, output_format(format, http), name)
 
         router.add_api_route(
             f"/{path}",
