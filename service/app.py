@@ -2,6 +2,10 @@
 
 from __future__ import annotations
 
+import gc
+from collections.abc import AsyncIterator
+from contextlib import asynccontextmanager
+
 from fastapi import FastAPI
 from fastapi.middleware.cors import CORSMiddleware
 from fastapi.staticfiles import StaticFiles
@@ -20,10 +24,19 @@ DESCRIPTION = (
 )
 
 
+@asynccontextmanager
+async def _freeze_startup_heap(_: FastAPI) -> AsyncIterator[None]:
+    """Move everything alive at start-up (libraries, schemas, routes) out of the cycle collector's
+    reach: those objects live as long as the process, and scanning them made every full collection
+    during a large batch cost tens of milliseconds."""
+    gc.freeze()
+    yield
+
+
 def create_app(settings: Settings | None = None) -> FastAPI:
     """Build the app from settings (from the environment when none are given)."""
     settings = settings or Settings.from_env()
-    app = FastAPI(title="Stepline", version=__version__, description=DESCRIPTION)
+    app = FastAPI(title="Stepline", version=__version__, description=DESCRIPTION, lifespan=_freeze_startup_heap)
     install_error_handlers(app)
     if settings.cors_allow_origins:
         app.add_middleware(

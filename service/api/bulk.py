@@ -7,7 +7,9 @@ from typing import Annotated
 from fastapi import APIRouter, Body
 from fastapi.responses import Response, StreamingResponse
 
+from service.api.delivery import json_response
 from service.api.documented import error_responses
+from service.api.scheduling import run_sized
 from service.designer.budget import check_budget, design_seconds
 from service.designer.bulk import design_items, sweep_results, sweep_size, sweep_worst_item
 from service.errors import UnmeetableRequestError
@@ -27,15 +29,20 @@ def build_router(settings: Settings) -> APIRouter:
     sweep_examples = request_examples(settings.examples_dir, "sweeps")
 
     @router.post("/batch", response_model=BatchResult, summary="Many designs in one request")
-    def batch(request: Annotated[BatchRequest, Body(openapi_examples=batch_examples)]) -> BatchResult:
+    async def batch(request: Annotated[BatchRequest, Body(openapi_examples=batch_examples)]) -> Response:
         """Each item is validated and designed on its own; results come back in order, errors at their index."""
         if len(request.requests) > settings.max_batch_items:
             raise UnmeetableRequestError(
                 "requests", f"at most {settings.max_batch_items} items per batch; this one has {len(request.requests)}"
             )
         items = [item for item in request.requests if isinstance(item, dict)]
-        check_budget(sum(design_seconds(item) for item in items), settings, "requests")
-        return BatchResult(results=design_items(request.requests, request.include_curves, options, settings))
+        seconds = sum(design_seconds(item) for item in items)
+        check_budget(seconds, settings, "requests")
+
+        def work() -> BatchResult:
+            return BatchResult(results=design_items(request.requests, request.include_curves, options, settings))
+
+        return json_response(await run_sized(work, seconds))
 
     @router.post(
         "/sweeps",
