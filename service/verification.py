@@ -75,20 +75,19 @@ class LineCascade:
         return LineCascade(self.source_ohm, self.load, self.medium, geometry, lengths_m)
 
 
-def check_grid_points(line: LineCascade, stop_hz: float) -> int:
+def check_grid_points(line: LineCascade, stop_hz: float | np.ndarray) -> int:
     """Enough frequencies to sample every lobe of the response several times.
 
     The response of a line of total electrical length Theta at the top of the band can turn
-    through at most about 2 Theta / pi lobes between DC and there.
+    through at most about 2 Theta / pi lobes between DC and there. For a stacked line (one stop
+    frequency per design) the count is the one the longest design needs.
     """
-    total = float(np.sum(electrical_length_rad(line, stop_hz)))
+    stops = np.asarray(stop_hz, dtype=float)
+    frequency = stops.reshape(stops.shape + (1,) * (line.geometry.ndim - stops.ndim))
+    eps = line.medium.parameters(line.geometry, frequency).eps_eff
+    total = float(np.max(np.sum(2.0 * np.pi * frequency * np.sqrt(eps) * line.lengths_m / C0, axis=-1)))
     lobes = math.ceil(2.0 * total / math.pi) + 1
     return int(np.clip(CHECK_POINTS_PER_LOBE * lobes + 1, MIN_CHECK_POINTS, MAX_CHECK_POINTS))
-
-
-def electrical_length_rad(line: LineCascade, frequency_hz: float) -> np.ndarray:
-    """beta l of each section at one frequency."""
-    return 2.0 * np.pi * frequency_hz * np.sqrt(line.eps_eff_at(frequency_hz)) * line.lengths_m / C0
 
 
 def return_loss_db(reflection: np.ndarray | float) -> np.ndarray:
@@ -219,8 +218,7 @@ def _check_group(
 ) -> list[tuple[VerifiedFigures, ResponseCurve]]:
     line = _evaluate(lines, indices)
     single = len(indices) == 1
-    minimum = max(check_grid_points(lines[i], stops[i]) for i in indices)
-    count = aligned_count(minimum, points)
+    count = aligned_count(check_grid_points(line, stops[indices[0]] if single else stops[indices]), points)
     grid = _grids(starts[indices], stops[indices], count, single)
     values, losses = line.response(grid, with_losses=line.medium.lossy)
     worst, where = (np.atleast_1d(a) for a in worst_reflections(line, grid, values))

@@ -1,0 +1,66 @@
+"""Stacked checks (designs x frequencies x sections in one cascade) equal checking each line alone.
+
+Reference: the same module's one-line path, which the exact-cascade tests tie to scikit-rf and
+to high-precision arithmetic; stacking must not change a single figure.
+"""
+
+import numpy as np
+import pytest
+
+from service.loads import FixedLoad
+from service.media.ideal import IdealLine
+from service.media.microstrip import MicrostripLine
+from service.verification import LineCascade, check, check_grid_points, check_many, stack
+
+MEDIA = {
+    "ideal": (IdealLine(velocity_factor=0.7), (20.0, 120.0)),
+    "lossy microstrip": (
+        MicrostripLine(
+            eps_r=3.66, height_m=0.508e-3, thickness_m=35e-6, loss_tangent=0.004, conductivity_s_per_m=5.8e7
+        ),
+        (0.2e-3, 3e-3),
+    ),
+}
+
+
+def random_lines(medium, geometry_range, count: int, seed: int) -> list[LineCascade]:
+    rng = np.random.default_rng(seed)
+    return [
+        LineCascade(
+            50.0,
+            FixedLoad(float(rng.uniform(5, 200)), float(rng.uniform(-30, 30))),
+            medium,
+            rng.uniform(*geometry_range, 4),
+            rng.uniform(0.005, 0.06, 4),
+        )
+        for _ in range(count)
+    ]
+
+
+@pytest.mark.parametrize("name", MEDIA)
+def test_stacked_check_equals_one_line_at_a_time(name):
+    medium, geometry_range = MEDIA[name]
+    lines = random_lines(medium, geometry_range, 6, seed=11)
+    starts, stops = np.full(6, 1e9), np.linspace(2e9, 4e9, 6)
+    specs, points = np.full(6, 0.1), np.full(6, 41)
+    stacked = check_many(lines, starts, stops, specs, points)
+    for line, start, stop, (figures, curve) in zip(lines, starts, stops, stacked, strict=True):
+        alone_figures, alone_curve = check(line, start, stop, 0.1, 41)
+        # The stack samples every line on the grid its longest line needs, so the refined peaks
+        # agree to the refinement's resolution (their place, on a flat top, less closely);
+        # the curves are the same points.
+        assert figures.max_reflection == pytest.approx(alone_figures.max_reflection, rel=1e-8)
+        assert figures.worst_frequency_hz == pytest.approx(alone_figures.worst_frequency_hz, rel=1e-4)
+        np.testing.assert_allclose(curve.reflection_magnitude, alone_curve.reflection_magnitude, rtol=1e-12)
+        np.testing.assert_allclose(curve.frequency_hz, alone_curve.frequency_hz, rtol=1e-15)
+        assert (curve.insertion_loss_db is None) == (name == "ideal")
+
+
+@pytest.mark.parametrize("name", MEDIA)
+def test_stacked_grid_is_the_longest_designs_grid(name):
+    medium, geometry_range = MEDIA[name]
+    lines = random_lines(medium, geometry_range, 5, seed=3)
+    stops = np.linspace(2e9, 9e9, 5)
+    alone = [check_grid_points(line, stop) for line, stop in zip(lines, stops, strict=True)]
+    assert len(set(alone)) > 1  # the lines differ, so the stacked count must pick the largest
+    assert check_grid_points(stack(lines), stops) == max(alone)
