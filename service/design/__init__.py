@@ -2,11 +2,15 @@
 
 from service.design.multisection import (
     InfeasibleDesignError,
+    WeightedDesign,
     binomial,
     binomial_sections_for,
     chebyshev,
     chebyshev_sections_for,
     quarter_wave,
+    stepped_many,
+    weighted_binomial,
+    weighted_chebyshev,
 )
 from service.design.stepped import SteppedDesign, band_edge_angle_rad, load_reflection
 from service.design.theory import EXACT, SMALL_REFLECTION, THEORIES, Theory
@@ -18,6 +22,7 @@ __all__ = [
     "InfeasibleDesignError",
     "SteppedDesign",
     "Theory",
+    "WeightedDesign",
     "band_edge_angle_rad",
     "binomial",
     "binomial_sections_for",
@@ -25,4 +30,7 @@ __all__ = [
     "chebyshev_sections_for",
     "load_reflection",
     "quarter_wave",
+    "stepped_many",
+    "weighted_binomial",
+    "weighted_chebyshev",
 ]

@@ -10,51 +10,75 @@ reflection, and the steps give the impedances.
 
 from __future__ import annotations
 
-import math
-
 import numpy as np
+from numpy.typing import ArrayLike
 
 
-def impedances_by_layer_peeling(source_ohm: float, load_ohm: float, weights: np.ndarray) -> np.ndarray:
+def impedances_by_layer_peeling(source_ohm: ArrayLike, load_ohm: ArrayLike, weights: np.ndarray) -> np.ndarray:
     """Section impedances (source side first) whose exact response has the shape of `weights`.
 
+    Vectorized over leading axes: sources and loads (...) with weights (..., N+1) give (..., N).
     The scale k follows from the DC condition: at theta = 0 the line vanishes and the source
     sees the bare load, so k^2 P(1)^2 = rho^2 / (1 - rho^2).
     """
-    rho = (load_ohm - source_ohm) / (load_ohm + source_ohm)
-    sections = weights.size - 1
-    if rho == 0.0:
-        return np.full(sections, source_ohm)
-    scale = abs(rho) / math.sqrt(1.0 - rho * rho) / float(np.sum(weights))
-    numerator = math.copysign(scale, rho) * np.asarray(weights, dtype=float)
-    denominator = _spectral_factor(numerator)
-    steps = _peel_junctions(numerator, denominator)
-    ratios = np.cumprod((1.0 + steps[:-1]) / (1.0 - steps[:-1]))
-    return source_ohm * ratios
+    source, load = np.asarray(source_ohm, dtype=float), np.asarray(load_ohm, dtype=float)
+    weights = np.asarray(weights, dtype=float)
+    rho = ((load - source) / (load + source))[..., None]
+    matched = rho == 0.0
+    rho = np.where(matched, 0.5, rho)  # any mismatch will do; matched rows are replaced below
+    scale = np.abs(rho) / np.sqrt(1.0 - rho * rho) / np.sum(weights, axis=-1, keepdims=True)
+    numerator = np.copysign(scale, rho) * weights
+    steps = _peel_junctions(numerator, _spectral_factor(numerator))
+    ratios = np.cumprod((1.0 + steps[..., :-1]) / (1.0 - steps[..., :-1]), axis=-1)
+    return np.where(matched, 1.0, ratios) * source[..., None]
 
 
 def _spectral_factor(numerator: np.ndarray) -> np.ndarray:
-    """A(z), coefficients in ascending powers, with |A|^2 = 1 + |B|^2 on |z| = 1 and no zeros inside."""
-    sections = numerator.size - 1
-    product = np.convolve(numerator, numerator[::-1])
-    product[sections] += 1.0
-    roots = np.roots(product[::-1])
-    outside = roots[np.argsort(np.abs(roots))][sections:]
-    factor = np.real(np.poly(outside))[::-1]
-    target = math.sqrt(1.0 + float(np.sum(numerator)) ** 2)
-    return factor * (target / float(np.sum(factor)))
+    """A(z), coefficients in ascending powers, with |A|^2 = 1 + |B|^2 on |z| = 1 and no zeros inside.
+
+    For every row of `numerator` (..., N+1) at once: the zeros of z^N + B(z) B_rev(z) (from the
+    eigenvalues of its companion matrix) come in pairs r, 1/r*; the N outside the unit circle
+    are A's zeros.
+    """
+    sections = numerator.shape[-1] - 1
+    product = np.zeros((*numerator.shape[:-1], 2 * sections + 1))
+    for index in range(sections + 1):
+        product[..., index : index + sections + 1] += numerator[..., index : index + 1] * numerator[..., ::-1]
+    product[..., sections] += 1.0
+    roots = _polynomial_roots(product)
+    order = np.argsort(np.abs(roots), axis=-1)
+    outside = np.take_along_axis(roots, order[..., sections:], axis=-1)
+    factor = np.ones((*numerator.shape[:-1], 1), dtype=complex)  # descending powers, built root by root
+    for index in range(sections):
+        root = outside[..., index : index + 1]
+        factor = np.concatenate((factor, np.zeros_like(root)), axis=-1) - root * np.concatenate(
+            (np.zeros_like(root), factor), axis=-1
+        )
+    factor = np.real(factor)[..., ::-1]
+    target = np.sqrt(1.0 + np.sum(numerator, axis=-1, keepdims=True) ** 2)
+    return factor * (target / np.sum(factor, axis=-1, keepdims=True))
+
+
+def _polynomial_roots(coefficients: np.ndarray) -> np.ndarray:
+    """Zeros of each row's polynomial (..., M+1), coefficients in either order (the product is palindromic),
+    as the eigenvalues of its companion matrix; the leading coefficient must not vanish."""
+    degree = coefficients.shape[-1] - 1
+    companion = np.zeros((*coefficients.shape[:-1], degree, degree))
+    companion[..., 0, :] = -coefficients[..., 1:] / coefficients[..., :1]
+    companion[..., np.arange(1, degree), np.arange(degree - 1)] = 1.0
+    return np.linalg.eigvals(companion)
 
 
 def _peel_junctions(numerator: np.ndarray, denominator: np.ndarray) -> np.ndarray:
-    """Junction reflections r_0 .. r_N from B/A by the layer recursion.
+    """Junction reflections r_0 .. r_N of every row from B/A by the layer recursion.
 
     r = B(0)/A(0); the rest of the line then has reflection (B - r A) / (z (A - r B)).
     """
-    b, a = numerator.copy(), denominator.copy()
+    b, a = numerator, denominator
     steps = []
-    for _ in range(numerator.size - 1):
-        r = b[0] / a[0]
+    for _ in range(numerator.shape[-1] - 1):
+        r = b[..., :1] / a[..., :1]
         steps.append(r)
-        b, a = (b - r * a)[1:], (a - r * b)[:-1]
-    steps.append(b[0] / a[0])
-    return np.array(steps)
+        b, a = (b - r * a)[..., 1:], (a - r * b)[..., :-1]
+    steps.append(b[..., :1] / a[..., :1])
+    return np.concatenate(steps, axis=-1)

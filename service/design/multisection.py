@@ -9,8 +9,10 @@ the reflection or the insertion-loss function, and how impedances follow from th
 
 from __future__ import annotations
 
+import functools
 import math
 from collections.abc import Callable
+from dataclasses import dataclass
 
 import numpy as np
 from scipy.special import comb
@@ -48,6 +50,43 @@ def binomial_weights(sections: int) -> np.ndarray:
     return comb(sections, np.arange(sections + 1))
 
 
+@dataclass(frozen=True)
+class WeightedDesign:
+    """A multisection design short of its impedances: junction weights and the theory's predictions.
+
+    `stepped_many` turns many of them into impedances at once, one vectorized synthesis per
+    theory and section count.
+    """
+
+    source_ohm: float
+    load_ohm: float
+    weights: np.ndarray
+    theory: Theory
+    predicted_max_reflection: float
+    predicted_bandwidth_fraction: float
+    notes: tuple[str, ...] = ()
+
+
+def stepped_many(designs: list[WeightedDesign]) -> list[SteppedDesign]:
+    """The stepped design of every weighted design, in order."""
+    groups: dict[tuple[str, int], list[int]] = {}
+    for index, weighted in enumerate(designs):
+        groups.setdefault((weighted.theory.name, weighted.weights.size), []).append(index)
+    stepped: list[SteppedDesign | None] = [None] * len(designs)
+    for indices in groups.values():
+        members = [designs[i] for i in indices]
+        impedances = members[0].theory.impedances(
+            np.array([m.source_ohm for m in members]),
+            np.array([m.load_ohm for m in members]),
+            np.stack([m.weights for m in members]),
+        )
+        for index, member, row in zip(indices, members, impedances, strict=True):
+            stepped[index] = SteppedDesign.quarter_waves(
+                row, member.predicted_max_reflection, member.predicted_bandwidth_fraction, member.notes
+            )
+    return stepped
+
+
 def binomial(
     source_ohm: float,
     load_ohm: float,
@@ -56,19 +95,30 @@ def binomial(
     spec_reflection: float,
     theory: Theory = SMALL_REFLECTION,
 ) -> SteppedDesign:
+    """Binomial design (see weighted_binomial)."""
+    return stepped_many([weighted_binomial(source_ohm, load_ohm, sections, edge_angle_rad, spec_reflection, theory)])[0]
+
+
+def weighted_binomial(
+    source_ohm: float,
+    load_ohm: float,
+    sections: int,
+    edge_angle_rad: float,
+    spec_reflection: float,
+    theory: Theory = SMALL_REFLECTION,
+) -> WeightedDesign:
     """Binomial design: measure(|Gamma|) = measure(|rho|) |cos theta|^N.
 
     The predicted bandwidth is the band within the spec reflection.
     """
     rho = theory.measure(abs(load_reflection(source_ohm, load_ohm)))
     spec = theory.measure(spec_reflection)
-    impedances = theory.impedances(source_ohm, load_ohm, binomial_weights(sections))
     predicted = theory.unmeasure(rho * abs(math.cos(edge_angle_rad)) ** sections)
     if spec >= rho:
         fraction = FULL_BAND_FRACTION
     else:
         fraction = fraction_from_edge_angle(math.acos((spec / rho) ** (1.0 / sections)))
-    return SteppedDesign.quarter_waves(impedances, predicted, fraction)
+    return WeightedDesign(source_ohm, load_ohm, binomial_weights(sections), theory, predicted, fraction)
 
 
 def binomial_sections_for(
@@ -84,8 +134,11 @@ def binomial_sections_for(
     return _smallest_count(source_ohm, load_ohm, max_reflection, theory, spread, math.log, "binomial")
 
 
+@functools.lru_cache(maxsize=4096)
 def chebyshev_weights(sections: int, scale: float) -> np.ndarray:
     """Junction weights of T_N(scale cos theta) / T_N(scale), n = 0..N, from its cos((N-2n) theta) terms.
+
+    Remembered per (N, scale), read-only: the designs of a batch or sweep mostly share one band.
 
     Dividing by T_N(scale) (the weights only matter up to a common factor) keeps them finite for
     very narrow bands, where scale = sec(theta_edge) is huge and T_N(scale) overflows.
@@ -104,6 +157,7 @@ def chebyshev_weights(sections: int, scale: float) -> np.ndarray:
     weights = series[orders] / 2.0
     if sections % 2 == 0:
         weights[sections // 2] *= 2.0
+    weights.setflags(write=False)
     return weights
 
 
@@ -143,6 +197,18 @@ def chebyshev(
     ripple: float | None = None,
     theory: Theory = SMALL_REFLECTION,
 ) -> SteppedDesign:
+    """Chebyshev design (see weighted_chebyshev)."""
+    return stepped_many([weighted_chebyshev(source_ohm, load_ohm, sections, edge_angle_rad, ripple, theory)])[0]
+
+
+def weighted_chebyshev(
+    source_ohm: float,
+    load_ohm: float,
+    sections: int,
+    edge_angle_rad: float,
+    ripple: float | None = None,
+    theory: Theory = SMALL_REFLECTION,
+) -> WeightedDesign:
     """Chebyshev (equal ripple) design: measure(|Gamma|) = measure(|rho|) |T_N(scale cos theta)| / T_N(scale).
 
     With no ripple the equal-ripple edges are put on the band limits, the lowest ripple N
@@ -164,10 +230,10 @@ def chebyshev(
             f"{ripple:.4g}: the equal-ripple design degenerates to a response that never exceeds "
             "the load's own reflection.",
         )
-    impedances = theory.impedances(source_ohm, load_ohm, chebyshev_weights(sections, scale))
+    weights = chebyshev_weights(sections, scale)
     predicted = theory.unmeasure(rho * chebyshev_peak_ratio(sections, scale * math.cos(edge_angle_rad), scale))
     fraction = fraction_from_edge_angle(math.acos(1.0 / scale))
-    return SteppedDesign.quarter_waves(impedances, predicted, fraction, notes)
+    return WeightedDesign(source_ohm, load_ohm, weights, theory, predicted, fraction, notes)
 
 
 def chebyshev_sections_for(

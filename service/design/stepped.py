@@ -6,6 +6,7 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
+from numpy.typing import ArrayLike
 
 QUARTER_WAVE_RAD = math.pi / 2
 
@@ -53,11 +54,13 @@ def fraction_from_edge_angle(edge_angle_rad: float) -> float:
     return 2.0 - 4.0 * edge_angle_rad / math.pi
 
 
-def impedances_from_weights(source_ohm: float, load_ohm: float, weights: np.ndarray) -> np.ndarray:
+def impedances_from_weights(source_ohm: ArrayLike, load_ohm: ArrayLike, weights: np.ndarray) -> np.ndarray:
     """Section impedances from the junction reflection weights, in the logarithmic form.
 
     ln(Z[n+1]/Z[n]) is proportional to weights[n]; the weights are normalized so the steps add
     up to ln(ZL/Z0) exactly. A symmetric weight sequence therefore gives Z[n] Z[N+1-n] = Z0 ZL.
+    Vectorized like the exact theory: sources and loads (...) with weights (..., N+1).
     """
-    shares = np.cumsum(weights / np.sum(weights))[:-1]
-    return source_ohm * np.exp(math.log(load_ohm / source_ohm) * shares)
+    source, load = np.asarray(source_ohm, dtype=float), np.asarray(load_ohm, dtype=float)
+    shares = np.cumsum(weights / np.sum(weights, axis=-1, keepdims=True), axis=-1)[..., :-1]
+    return source[..., None] * np.exp(np.log(load / source)[..., None] * shares)

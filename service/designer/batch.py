@@ -6,7 +6,7 @@ from __future__ import annotations
 from service.designer.finish import finish_many
 from service.designer.items import Item, design_item
 from service.designer.lines import DesignOptions
-from service.designer.stepped import Plan, designed, plan_binomial, plan_chebyshev, plan_quarter_wave
+from service.designer.stepped import Plan, designed, jobs_for, plan_binomial, plan_chebyshev, plan_quarter_wave
 from service.errors import UnmeetableRequestError
 from service.schemas.items import BinomialItem, ChebyshevItem, QuarterWaveItem
 from service.schemas.results import TransformerDesign
@@ -19,8 +19,9 @@ Outcome = TransformerDesign | UnmeetableRequestError
 def design_batch(items: list[Item], options: DesignOptions | None = None) -> list[Outcome]:
     """The design (or the reason it cannot be made) of every item, in order."""
     outcomes: list[Outcome | None] = [None] * len(items)
-    plans: list[tuple[int, Plan]] = []
-    jobs = []
+    positions: list[int] = []
+    plans: list[Plan] = []
+    counts: list[int] = []
     for index, item in enumerate(items):
         try:
             planner = PLANNERS.get(type(item))
@@ -28,10 +29,11 @@ def design_batch(items: list[Item], options: DesignOptions | None = None) -> lis
                 outcomes[index] = design_item(item, options)
                 continue
             plan = planner(item)
-            jobs.append(plan.job(plan.theory_sections()))
-            plans.append((index, plan))
+            counts.append(plan.theory_sections())
+            plans.append(plan)
+            positions.append(index)
         except UnmeetableRequestError as exc:
             outcomes[index] = exc
-    for (index, plan), first in zip(plans, finish_many(jobs, options), strict=True):
+    for index, plan, first in zip(positions, plans, finish_many(jobs_for(plans, counts), options), strict=True):
         outcomes[index] = designed(plan, options, first)
     return outcomes

@@ -16,7 +16,11 @@ from service.schemas.transformers import MatchRequest, QuarterWaveRequest, Trans
 
 @dataclass(frozen=True)
 class Plan:
-    """How to synthesize one stepped request at any section count."""
+    """How to synthesize one stepped request at any section count.
+
+    Multisection plans also say how to `weigh` a count: their impedances can then be synthesized
+    together with other plans' (see jobs_for).
+    """
 
     method: str
     theory: str
@@ -25,6 +29,7 @@ class Plan:
     synthesize: Callable[[int], design.SteppedDesign]
     count: Callable[[], int]
     sections: int | None  # as requested; None means: by spec
+    weigh: Callable[[int], design.WeightedDesign] | None = None
 
     def job(self, sections: int, notes: tuple[str, ...] = ()) -> Job:
         return Job(self.method, self.theory, self.request, self.target, self.synthesize(sections), notes)
@@ -37,6 +42,23 @@ class Plan:
             return self.count()
         except InfeasibleDesignError as exc:
             raise UnmeetableRequestError("max_reflection", str(exc)) from exc
+
+
+def jobs_for(plans: list[Plan], counts: list[int]) -> list[Job]:
+    """The job of every plan at its count; multisection impedances synthesized in vectorized groups."""
+    weighable = [index for index, plan in enumerate(plans) if plan.weigh is not None]
+    weighted = design.stepped_many([plans[i].weigh(counts[i]) for i in weighable])
+    synthesized = dict(zip(weighable, weighted, strict=True))
+    return [
+        Job(
+            plan.method,
+            plan.theory,
+            plan.request,
+            plan.target,
+            synthesized[index] if index in synthesized else plan.synthesize(count),
+        )
+        for index, (plan, count) in enumerate(zip(plans, counts, strict=True))
+    ]
 
 
 def plan_quarter_wave(request: QuarterWaveRequest) -> Plan:
@@ -57,7 +79,9 @@ def plan_binomial(request: TransformerRequest) -> Plan:
     return _multisection_plan(
         "binomial",
         request,
-        lambda source, load, edge, theory, sections: design.binomial(source, load, sections, edge, spec, theory),
+        lambda source, load, edge, theory, sections: design.weighted_binomial(
+            source, load, sections, edge, spec, theory
+        ),
         lambda source, load, edge, theory: design.binomial_sections_for(source, load, edge, spec, theory),
     )
 
@@ -73,7 +97,9 @@ def plan_chebyshev(request: TransformerRequest) -> Plan:
     return _multisection_plan(
         "chebyshev",
         request,
-        lambda source, load, edge, theory, sections: design.chebyshev(source, load, sections, edge, ripple, theory),
+        lambda source, load, edge, theory, sections: design.weighted_chebyshev(
+            source, load, sections, edge, ripple, theory
+        ),
         lambda source, load, edge, theory: design.chebyshev_sections_for(source, load, edge, spec, theory),
     )
 
@@ -81,21 +107,26 @@ def plan_chebyshev(request: TransformerRequest) -> Plan:
 def _multisection_plan(
     method: str,
     request: TransformerRequest,
-    synthesize: Callable[..., design.SteppedDesign],
+    weigh: Callable[..., design.WeightedDesign],
     count: Callable[..., int],
 ) -> Plan:
-    """A plan whose synthesis and count take (source, target resistance, edge angle, theory[, N])."""
+    """A plan whose weighing and count take (source, target resistance, edge angle, theory[, N])."""
     target = target_for(request)
     theory = design.THEORIES[request.theory]
     inputs = (request.source_ohm, target.resistance_ohm, target.edge_angle_rad, theory)
+
+    def weighed(sections: int) -> design.WeightedDesign:
+        return weigh(*inputs, sections)
+
     return Plan(
         method,
         request.theory,
         request,
         target,
-        lambda sections: synthesize(*inputs, sections),
+        lambda sections: design.stepped_many([weighed(sections)])[0],
         lambda: count(*inputs),
         request.sections,
+        weighed,
     )
 
 
