@@ -8,7 +8,18 @@ from scipy.optimize import minimize_scalar
 from scipy.signal import argrelmax
 
 from service import network
-from service.design import EXACT, SMALL_REFLECTION, band_edge_angle_rad, binomial, chebyshev
+from service.design import (
+    EXACT,
+    SMALL_REFLECTION,
+    band_edge_angle_rad,
+    binomial,
+    chebyshev,
+    stepped_many,
+    weighted_binomial,
+    weighted_chebyshev,
+)
+from service.design.exact import _spectral_factor
+from service.design.multisection import chebyshev_weights
 
 
 def reflection_of(impedances, source, load, theta):
@@ -125,3 +136,40 @@ def test_exact_spec_driven_is_smallest(client, base_request):
     assert result["verified"]["meets_spec"] and not result["warnings"]
     fewer = client.post("/v1/transformers/chebyshev", json=body | {"sections": count - 1}).json()
     assert not fewer["verified"]["meets_spec"]
+
+
+def test_designs_synthesized_together_equal_designs_made_alone():
+    # Mixed theories, section counts and loads in one call: each group is one stacked
+    # factorization; every design must come out as when it is synthesized on its own.
+    edge = band_edge_angle_rad(1e9, 3e9)
+    rng = np.random.default_rng(8)
+    weighted = []
+    for _ in range(40):
+        theory = EXACT if rng.random() < 0.6 else SMALL_REFLECTION
+        sections, load = int(rng.integers(1, 9)), float(rng.uniform(2.0, 2000.0))
+        if rng.random() < 0.5:
+            weighted.append(weighted_chebyshev(50.0, load, sections, edge, None, theory))
+        else:
+            weighted.append(weighted_binomial(50.0, load, sections, edge, 0.05, theory))
+    together = stepped_many(weighted)
+    for design, alone in zip(together, (stepped_many([w])[0] for w in weighted), strict=True):
+        np.testing.assert_allclose(design.impedances_ohm, alone.impedances_ohm, rtol=1e-12)
+        assert design.predicted_max_reflection == alone.predicted_max_reflection
+
+
+@pytest.mark.parametrize("sections", [2, 5, 12])
+def test_stacked_spectral_factor_has_numpys_roots(sections):
+    # Reference: numpy.roots on the same polynomial (general-purpose library); A's zeros are the
+    # ones outside the unit circle.
+    numerators = np.stack([k * chebyshev_weights(sections, 1.3) for k in (0.05, 0.3, 2.0)])
+    factors = _spectral_factor(numerators)
+    for numerator, factor in zip(numerators, factors, strict=True):
+        product = np.convolve(numerator, numerator[::-1])
+        product[sections] += 1.0
+        roots = np.roots(product[::-1])
+        expected = np.sort_complex(roots[np.abs(roots) > 1.0])
+        np.testing.assert_allclose(np.sort_complex(np.roots(factor[::-1])), expected, rtol=1e-8)
+        # |A|^2 = 1 + |B|^2 on the unit circle
+        z = np.exp(-1j * np.linspace(0, np.pi, 7))
+        a, b = np.polyval(factor[::-1], z), np.polyval(numerator[::-1], z)
+        np.testing.assert_allclose(np.abs(a) ** 2, 1 + np.abs(b) ** 2, rtol=1e-10)
