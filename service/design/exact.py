@@ -48,12 +48,11 @@ def _spectral_factor(numerator: np.ndarray) -> np.ndarray:
     roots = _polynomial_roots(product)
     order = np.argsort(np.abs(roots), axis=-1)
     outside = np.take_along_axis(roots, order[..., sections:], axis=-1)
-    factor = np.ones((*numerator.shape[:-1], 1), dtype=complex)  # descending powers, built root by root
-    for index in range(sections):
+    factor = np.zeros((*numerator.shape[:-1], sections + 1), dtype=complex)  # descending powers
+    factor[..., 0] = 1.0
+    for index in range(sections):  # multiply in (z - root), one root at a time
         root = outside[..., index : index + 1]
-        factor = np.concatenate((factor, np.zeros_like(root)), axis=-1) - root * np.concatenate(
-            (np.zeros_like(root), factor), axis=-1
-        )
+        factor[..., 1 : index + 2] = factor[..., 1 : index + 2] - root * factor[..., : index + 1]
     factor = np.real(factor)[..., ::-1]
     target = np.sqrt(1.0 + np.sum(numerator, axis=-1, keepdims=True) ** 2)
     return factor * (target / np.sum(factor, axis=-1, keepdims=True))
