@@ -23,6 +23,7 @@ REFINE_POINTS = 17  # per round, spanning the neighbours of the current best
 REFINE_ROUNDS = 2
 PEAKS_REFINED = 6
 RETURN_LOSS_CAP_DB = 300.0
+STACK_DESIGNS = 32  # designs per stacked cascade evaluation
 C0 = network.SPEED_OF_LIGHT_M_PER_S
 
 
@@ -127,7 +128,12 @@ def stack_key(line: LineCascade) -> tuple | None:
 
 
 def stacked_groups(lines: list[LineCascade]) -> list[list[int]]:
-    """Indices of the lines, grouped so that each group can be stacked (or is a single line)."""
+    """Indices of the lines, grouped so that each group can be stacked (or is a single line).
+
+    Groups hold at most STACK_DESIGNS lines: a stack of a few hundred designs makes arrays too
+    big for the processor's cache, and the cascade then runs at memory speed (measured: 500
+    designs x 301 frequencies x 3 sections in one stack took 2.4 times as long as in chunks of 32).
+    """
     groups: dict[tuple, list[int]] = {}
     singles = []
     for index, line in enumerate(lines):
@@ -136,7 +142,8 @@ def stacked_groups(lines: list[LineCascade]) -> list[list[int]]:
             singles.append([index])
         else:
             groups.setdefault(key, []).append(index)
-    return list(groups.values()) + singles
+    chunks = [group[i : i + STACK_DESIGNS] for group in groups.values() for i in range(0, len(group), STACK_DESIGNS)]
+    return chunks + singles
 
 
 def _evaluate(lines: list[LineCascade], indices: list[int]) -> LineCascade:
