@@ -10,7 +10,15 @@ import pytest
 from service.loads import FixedLoad
 from service.media.ideal import IdealLine
 from service.media.microstrip import MicrostripLine
-from service.verification import LineCascade, check, check_grid_points, check_many, stack
+from service.verification import (
+    STACK_DESIGNS,
+    LineCascade,
+    check,
+    check_grid_points,
+    check_many,
+    stack,
+    stacked_groups,
+)
 
 MEDIA = {
     "ideal": (IdealLine(velocity_factor=0.7), (20.0, 120.0)),
@@ -64,3 +72,10 @@ def test_stacked_grid_is_the_longest_designs_grid(name):
     alone = [check_grid_points(line, stop) for line, stop in zip(lines, stops, strict=True)]
     assert len(set(alone)) > 1  # the lines differ, so the stacked count must pick the largest
     assert check_grid_points(stack(lines), stops) == max(alone)
+
+
+def test_large_stacks_are_cut_into_cache_sized_chunks():
+    lines = random_lines(IdealLine(), (20.0, 120.0), 2 * STACK_DESIGNS + 6, seed=5)
+    groups = stacked_groups(lines)
+    assert [len(group) for group in groups] == [STACK_DESIGNS, STACK_DESIGNS, 6]
+    assert sorted(index for group in groups for index in group) == list(range(len(lines)))
