@@ -283,6 +283,4 @@ def junction_results(line: LineCascade, impedances_ohm: np.ndarray) -> list[Junc
         load = complex(line.load.impedance_ohm(np.zeros(1))[0])
         if load.imag == 0.0:
             chain = np.append(chain, load.real)
-    return [
-        JunctionResult(reflection=float(r), transmission=float(1.0 + r)) for r in network.junction_reflections(chain)
-    ]
+    return [JunctionResult(reflection=r, transmission=1.0 + r) for r in network.junction_reflections(chain).tolist()]

@@ -175,8 +175,11 @@ def chebyshev_ratio(sections: int, y: np.ndarray, scale: float) -> np.ndarray:
     return np.where(np.abs(y) <= 1.0, inside, sign * outside)
 
 
+@functools.lru_cache(maxsize=4096)
 def chebyshev_peak_ratio(sections: int, argument: float, scale: float) -> float:
-    """max |T_N(y)| over |y| <= argument (>= 0), divided by T_N(scale) (scale >= 1), without overflow."""
+    """max |T_N(y)| over |y| <= argument (>= 0), divided by T_N(scale) (scale >= 1), without overflow.
+
+    Remembered like the weights."""
     if argument >= 1.0:
         return float(chebyshev_ratio(sections, np.array([argument]), scale)[0])
     extrema = np.cos(np.arange(sections + 1) * math.pi / sections)

@@ -115,15 +115,10 @@ def section_results(line: LineCascade, frequency_hz: float) -> tuple[list[Sectio
     impedances, eps = params.impedance_ohm, params.eps_eff
     degrees = 360.0 * frequency_hz * np.sqrt(eps) * line.lengths_m / SPEED_OF_LIGHT_M_PER_S
     name = line.medium.geometry_name
+    columns = (impedances, degrees, line.lengths_m, eps, line.geometry)
     results = [
-        SectionResult(
-            impedance_ohm=float(z),
-            electrical_length_deg=float(d),
-            length_m=float(m),
-            eps_eff=float(e),
-            **({name: float(g)} if name else {}),
-        )
-        for z, d, m, e, g in zip(impedances, degrees, line.lengths_m, eps, line.geometry, strict=True)
+        SectionResult(impedance_ohm=z, electrical_length_deg=d, length_m=m, eps_eff=e, **({name: g} if name else {}))
+        for z, d, m, e, g in zip(*(np.asarray(column, dtype=float).tolist() for column in columns), strict=True)
     ]
     return results, impedances
 
