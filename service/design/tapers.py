@@ -62,7 +62,8 @@ def taper_reflection(profile: TaperProfile, beta_l: np.ndarray, ln_ratio: float,
     if profile == "triangular":
         return gamma0 * np.sinc(x / (2.0 * math.pi)) ** 2
     root = np.sqrt(np.abs(x * x - a * a))
-    return gamma0 * np.where(x >= a, np.abs(np.cos(root)), np.cosh(root)) / math.cosh(a)
+    # below x = a the root is at most a; clamping keeps cosh finite where np.where discards it
+    return gamma0 * np.where(x >= a, np.abs(np.cos(root)), np.cosh(np.minimum(root, a))) / math.cosh(a)
 
 
 def _sinc_peak(k: int) -> tuple[float, float]:
