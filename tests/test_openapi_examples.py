@@ -5,7 +5,15 @@ from pathlib import Path
 
 import pytest
 
+from service.schemas import bulk, comparison, results, tolerance
 from service.settings import PROJECT_ROOT
+
+RESULT_MODELS = {
+    name: getattr(module, name)
+    for module in (bulk, comparison, results, tolerance)
+    for name in dir(module)
+    if hasattr(getattr(module, name), "model_validate_json")
+}
 
 EXAMPLES = sorted((PROJECT_ROOT / "openapi_examples").rglob("*.json"))
 
@@ -28,6 +36,12 @@ def test_example_is_documented_and_works(client, path):
     assert documented[path.stem]["value"] == example["value"]
     response = client.post(endpoint, json=example["value"])
     assert response.status_code == 200, response.text
+    # Routes send their result's JSON bytes without FastAPI re-checking them against the
+    # declared response model, so check here that the answer is an instance of that model.
+    declared = schema["paths"][endpoint]["post"]["responses"]["200"]["content"]
+    if response.headers["content-type"].startswith("application/json") and "application/json" in declared:
+        model_name = declared["application/json"]["schema"]["$ref"].rsplit("/", 1)[1]
+        RESULT_MODELS[model_name].model_validate_json(response.content)
 
 
 def test_health(client):
