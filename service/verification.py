@@ -231,17 +231,20 @@ def _check_group(
     worst, where = (np.atleast_1d(a) for a in worst_reflections(line, grid, values))
     losses = None if losses is None else np.atleast_2d(losses)
     every = (count - 1) // (points - 1)
-    grid, values = np.atleast_2d(grid), np.atleast_2d(values)
+    curve_values = np.atleast_2d(values)[:, ::every]
+    frequencies, magnitudes, return_losses = (
+        rows.tolist() for rows in (np.atleast_2d(grid)[:, ::every], curve_values, return_loss_db(curve_values))
+    )
+    curve_losses = [None] * len(indices) if losses is None else losses[:, ::every].tolist()
+    max_losses = [None] * len(indices) if losses is None else np.max(losses, axis=-1).tolist()
     results = []
     for position, index in enumerate(indices):
-        max_loss = None if losses is None else float(np.max(losses[position]))
-        figures = _figures(lines[index], worst[position], where[position], specs[index], max_loss)
-        magnitudes = values[position, ::every]
+        figures = _figures(lines[index], worst[position], where[position], specs[index], max_losses[position])
         curve = ResponseCurve(
-            frequency_hz=grid[position, ::every].tolist(),
-            reflection_magnitude=magnitudes.tolist(),
-            return_loss_db=return_loss_db(magnitudes).tolist(),
-            insertion_loss_db=None if losses is None else losses[position, ::every].tolist(),
+            frequency_hz=frequencies[position],
+            reflection_magnitude=magnitudes[position],
+            return_loss_db=return_losses[position],
+            insertion_loss_db=curve_losses[position],
         )
         results.append((figures, curve))
     return results
