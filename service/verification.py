@@ -6,6 +6,7 @@ independent check of a design.
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass
 
@@ -43,11 +44,24 @@ class LineCascade:
 
     def abcd(self, frequency_hz: np.ndarray) -> network.Abcd:
         """The cascade's ABCD entries at each frequency, with the medium's dispersion and losses."""
-        f = np.asarray(frequency_hz, dtype=float)
-        params = self.medium.parameters(self.geometry, f[..., None])
-        angles = 2.0 * np.pi * f[..., None] * np.sqrt(params.eps_eff) * self.lengths_m / C0
-        losses = None if params.attenuation_np_per_m is None else params.attenuation_np_per_m * self.lengths_m
-        return network.cascade(params.impedance_ohm, angles, losses)
+        f = np.asarray(frequency_hz, dtype=float)[..., None]
+        if self.medium.dispersive or self.medium.lossy:
+            params = self.medium.parameters(self.geometry, f)
+            losses = None if params.attenuation_np_per_m is None else params.attenuation_np_per_m * self.lengths_m
+            return network.cascade(params.impedance_ohm, f * self._phase_per_hz(params.eps_eff), losses)
+        impedance, phase_per_hz = self._fixed_sections
+        return network.cascade(impedance, f * phase_per_hz)
+
+    @functools.cached_property
+    def _fixed_sections(self) -> tuple[np.ndarray, np.ndarray]:
+        """Impedance and phase per hertz of sections that neither disperse nor lose: the same at
+        every frequency, so taken once (at 1 Hz) rather than at every evaluation."""
+        params = self.medium.parameters(self.geometry, np.ones((1, 1)))
+        return params.impedance_ohm, self._phase_per_hz(params.eps_eff)
+
+    def _phase_per_hz(self, eps_eff: np.ndarray) -> np.ndarray:
+        """beta l / f of each section: 2 pi sqrt(eps_eff) l / c."""
+        return 2.0 * np.pi * np.sqrt(eps_eff) * self.lengths_m / C0
 
     def reflection(self, frequency_hz: np.ndarray) -> np.ndarray:
         """|reflection| seen from the source line at each frequency."""
