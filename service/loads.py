@@ -5,6 +5,7 @@ Plain numerics shared by the synthesis orchestration and the exact check; no HTT
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 from typing import Literal, Protocol
 
@@ -36,8 +37,12 @@ class FixedLoad:
     frequency_dependent: bool = False
 
     def impedance_ohm(self, frequency_hz: np.ndarray) -> np.ndarray:
-        impedance = np.asarray(self.resistance_ohm) + 1j * np.asarray(self.reactance_ohm)
-        return impedance * np.ones(np.shape(frequency_hz))
+        return self._impedance * np.ones(np.shape(frequency_hz))
+
+    @functools.cached_property
+    def _impedance(self) -> np.ndarray:
+        """R + jX, formed once: every evaluation of a line needs it."""
+        return np.asarray(self.resistance_ohm) + 1j * np.asarray(self.reactance_ohm)
 
     def frequency_range_hz(self) -> tuple[float, float] | None:
         return None

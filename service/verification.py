@@ -52,10 +52,17 @@ class LineCascade:
         impedance, phase_per_hz = self._fixed_sections
         return network.cascade(impedance, f * phase_per_hz)
 
+    def electrical_lengths_rad(self, frequency_hz: np.ndarray) -> np.ndarray:
+        """beta l of every section at each frequency: (..., F, S) for frequencies (..., F)."""
+        f = np.asarray(frequency_hz, dtype=float)[..., None]
+        if self.medium.dispersive:
+            return f * self._phase_per_hz(self.medium.parameters(self.geometry, f).eps_eff)
+        return f * self._fixed_sections[1]
+
     @functools.cached_property
     def _fixed_sections(self) -> tuple[np.ndarray, np.ndarray]:
-        """Impedance and phase per hertz of sections that neither disperse nor lose: the same at
-        every frequency, so taken once (at 1 Hz) rather than at every evaluation."""
+        """Impedance and phase per hertz of sections that do not disperse: the same at every
+        frequency, so taken once (at 1 Hz) rather than at every evaluation."""
         params = self.medium.parameters(self.geometry, np.ones((1, 1)))
         return params.impedance_ohm, self._phase_per_hz(params.eps_eff)
 
@@ -98,9 +105,8 @@ def check_grid_points(line: LineCascade, stop_hz: float | np.ndarray) -> int:
     frequency per design) the count is the one the longest design needs.
     """
     stops = np.asarray(stop_hz, dtype=float)
-    frequency = stops.reshape(stops.shape + (1,) * (line.geometry.ndim - stops.ndim))
-    eps = line.medium.parameters(line.geometry, frequency).eps_eff
-    total = float(np.max(np.sum(2.0 * np.pi * frequency * np.sqrt(eps) * line.lengths_m / C0, axis=-1)))
+    frequency = stops.reshape(stops.shape + (1,) * (line.geometry.ndim - 1 - stops.ndim))
+    total = float(np.max(np.sum(line.electrical_lengths_rad(frequency), axis=-1)))
     lobes = math.ceil(2.0 * total / math.pi) + 1
     return int(np.clip(CHECK_POINTS_PER_LOBE * lobes + 1, MIN_CHECK_POINTS, MAX_CHECK_POINTS))
 
