@@ -22,6 +22,7 @@ MAX_CHECK_POINTS = 20001
 CHECK_POINTS_PER_LOBE = 48
 REFINE_POINTS = 17  # per round, spanning the neighbours of the current best
 REFINE_ROUNDS = 2
+REFINE_OFFSETS = np.linspace(-1.0, 1.0, REFINE_POINTS)  # in steps of the current grid
 PEAKS_REFINED = 6
 RETURN_LOSS_CAP_DB = 300.0
 STACK_DESIGNS = 32  # designs per stacked cascade evaluation
@@ -197,9 +198,8 @@ def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -
     centre = grid[rows, top]
     peak_axis = np.arange(candidates)[None, :]
     low, high = grid[:, :1, None], grid[:, -1:, None]
-    offsets = np.linspace(-1.0, 1.0, REFINE_POINTS)
     for _ in range(REFINE_ROUNDS):
-        fine = np.clip(centre[..., None] + step[..., None] * offsets, low, high)
+        fine = np.clip(centre[..., None] + step[..., None] * REFINE_OFFSETS, low, high)
         fine_values = line.reflection(fine.reshape(*lead, -1)).reshape(fine.shape)
         best = np.argmax(fine_values, axis=-1)
         centre, worst = fine[rows, peak_axis, best], fine_values[rows, peak_axis, best]
