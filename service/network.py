@@ -41,9 +41,9 @@ def cascade(
     """
     impedances = np.asarray(impedances_ohm, dtype=float)
     lengths = np.asarray(electrical_lengths_rad, dtype=float)
-    shape = np.broadcast_shapes(impedances.shape, lengths.shape)
     if losses_np is None:
-        return _lossless_cascade(impedances, lengths if lengths.shape == shape else np.broadcast_to(lengths, shape))
+        return lossless_cascade(impedances, lengths).complex()
+    shape = np.broadcast_shapes(impedances.shape, lengths.shape)
     impedances = np.broadcast_to(impedances, shape)
     gamma_l = np.broadcast_to(np.asarray(losses_np) + 1j * lengths, shape)
     cosines, sines = np.cosh(gamma_l), np.sinh(gamma_l)
@@ -64,13 +64,31 @@ def cascade(
     return Abcd(a, b, c, d)
 
 
-def _lossless_cascade(impedances: np.ndarray, lengths: np.ndarray) -> Abcd:
-    """The lossless product in real arithmetic.
+@dataclass(frozen=True)
+class LosslessAbcd:
+    """A lossless two-port's ABCD entries as real numbers: A = a, B = j b, C = j c, D = d."""
+
+    a: np.ndarray
+    b: np.ndarray
+    c: np.ndarray
+    d: np.ndarray
+
+    def complex(self) -> Abcd:
+        """The same entries as complex numbers."""
+        return Abcd(self.a + 0j, 1j * self.b, 1j * self.c, self.d + 0j)
+
+
+def lossless_cascade(impedances_ohm: np.ndarray, electrical_lengths_rad: np.ndarray) -> LosslessAbcd:
+    """The lossless product in real arithmetic (arguments broadcast as in `cascade`).
 
     A lossless line's matrix is [[cos, j Z sin], [j sin / Z, cos]]; products of such matrices keep
     A and D real and B and C imaginary, so only the real numbers a, b/j, c/j, d are carried.
     The first section's matrix starts the product (every line has at least one section).
     """
+    impedances = np.asarray(impedances_ohm, dtype=float)
+    lengths = np.asarray(electrical_lengths_rad, dtype=float)
+    shape = np.broadcast_shapes(impedances.shape, lengths.shape)
+    lengths = lengths if lengths.shape == shape else np.broadcast_to(lengths, shape)
     cosines, sines = np.cos(lengths), np.sin(lengths)
     z_sines, sines_over_z = sines * impedances, sines / impedances
     a, b, c, d = cosines[..., 0], z_sines[..., 0], sines_over_z[..., 0], cosines[..., 0]
@@ -84,7 +102,21 @@ def _lossless_cascade(impedances: np.ndarray, lengths: np.ndarray) -> Abcd:
             c * cos_t + d * sin_over_z,
             d * cos_t - c * z_sin,
         )
-    return Abcd(a + 0j, 1j * b, 1j * c, d + 0j)
+    return LosslessAbcd(a, b, c, d)
+
+
+def lossless_reflection(network: LosslessAbcd, load_ohm: np.ndarray, reference_ohm: float) -> np.ndarray:
+    """|reflection| against a real reference looking into port 1, port 2 into the load.
+
+    The same quantity as |reflection(input_impedance(...))| in real arithmetic: with Z_L = R + jX,
+    A Z_L + B = aR + j(aX + b) and C Z_L + D = (d - cX) + j cR, and the reflection is
+    (num - Z0 den) / (num + Z0 den).
+    """
+    load = np.asarray(load_ohm)
+    r, x = load.real, load.imag
+    p, q = network.a * r, network.a * x + network.b
+    u, v = reference_ohm * (network.d - network.c * x), reference_ohm * (network.c * r)
+    return np.hypot(p - u, q - v) / np.hypot(p + u, q + v)
 
 
 def transducer_gain(network: Abcd, source_ohm: float, load_ohm: np.ndarray) -> np.ndarray:

@@ -45,13 +45,20 @@ class LineCascade:
 
     def abcd(self, frequency_hz: np.ndarray) -> network.Abcd:
         """The cascade's ABCD entries at each frequency, with the medium's dispersion and losses."""
+        if not self.medium.lossy:
+            return self._lossless_abcd(frequency_hz).complex()
         f = np.asarray(frequency_hz, dtype=float)[..., None]
-        if self.medium.dispersive or self.medium.lossy:
+        params = self.medium.parameters(self.geometry, f)
+        losses = params.attenuation_np_per_m * self.lengths_m
+        return network.cascade(params.impedance_ohm, f * self._phase_per_hz(params.eps_eff), losses)
+
+    def _lossless_abcd(self, frequency_hz: np.ndarray) -> network.LosslessAbcd:
+        f = np.asarray(frequency_hz, dtype=float)[..., None]
+        if self.medium.dispersive:
             params = self.medium.parameters(self.geometry, f)
-            losses = None if params.attenuation_np_per_m is None else params.attenuation_np_per_m * self.lengths_m
-            return network.cascade(params.impedance_ohm, f * self._phase_per_hz(params.eps_eff), losses)
+            return network.lossless_cascade(params.impedance_ohm, f * self._phase_per_hz(params.eps_eff))
         impedance, phase_per_hz = self._fixed_sections
-        return network.cascade(impedance, f * phase_per_hz)
+        return network.lossless_cascade(impedance, f * phase_per_hz)
 
     def electrical_lengths_rad(self, frequency_hz: np.ndarray) -> np.ndarray:
         """beta l of every section at each frequency: (..., F, S) for frequencies (..., F)."""
@@ -81,8 +88,10 @@ class LineCascade:
         The insertion loss is -10 log10 of the power reaching the load over the power available
         from the source.
         """
-        abcd = self.abcd(frequency_hz)
         load = self.load.impedance_ohm(frequency_hz)
+        if not self.medium.lossy:
+            return network.lossless_reflection(self._lossless_abcd(frequency_hz), load, self.source_ohm), None
+        abcd = self.abcd(frequency_hz)
         magnitude = np.abs(network.reflection(network.input_impedance(abcd, load), self.source_ohm))
         if not with_losses:
             return magnitude, None

@@ -81,3 +81,16 @@ def test_junction_transmission_is_one_plus_reflection():
     gamma = network.junction_reflections(np.array([50.0, 75.0]))[0]
     assert gamma == pytest.approx(25.0 / 125.0)
     assert 1.0 + gamma == pytest.approx(2.0 * 75.0 / 125.0)
+
+
+@pytest.mark.parametrize("seed", range(3))
+def test_lossless_reflection_in_real_arithmetic_equals_the_complex_route(seed):
+    # Reference: the complex ABCD route (itself tied to scikit-rf and to mpmath above), with a
+    # complex load that changes with frequency.
+    impedances, lengths = random_lines(seed)
+    frequencies = np.linspace(0.5e9, 3.0e9, 301)
+    angles = network.electrical_length_rad(lengths, frequencies, 0.7)
+    loads = 20.0 + 0.01 * frequencies / 1e7 + 1j * np.linspace(-40.0, 60.0, frequencies.size)
+    parts = network.lossless_cascade(impedances, angles)
+    complex_route = np.abs(network.reflection(network.input_impedance(parts.complex(), loads), 50.0))
+    np.testing.assert_allclose(network.lossless_reflection(parts, loads, 50.0), complex_route, rtol=1e-12, atol=1e-15)
