@@ -83,13 +83,18 @@ def lossless_cascade(impedances_ohm: np.ndarray, electrical_lengths_rad: np.ndar
 
     A lossless line's matrix is [[cos, j Z sin], [j sin / Z, cos]]; products of such matrices keep
     A and D real and B and C imaginary, so only the real numbers a, b/j, c/j, d are carried.
-    The first section's matrix starts the product (every line has at least one section).
+    The first section's matrix starts the product (every line has at least one section). Where
+    every section has the same electrical length (the usual stepped transformer) the cosines and
+    sines are taken once: they are most of the cost.
     """
     impedances = np.asarray(impedances_ohm, dtype=float)
     lengths = np.asarray(electrical_lengths_rad, dtype=float)
     shape = np.broadcast_shapes(impedances.shape, lengths.shape)
     lengths = lengths if lengths.shape == shape else np.broadcast_to(lengths, shape)
-    cosines, sines = np.cos(lengths), np.sin(lengths)
+    if np.all(lengths == lengths[..., :1]):  # commensurate sections: one cos and sin serve them all
+        cosines, sines = (np.broadcast_to(trig(lengths[..., :1]), shape) for trig in (np.cos, np.sin))
+    else:
+        cosines, sines = np.cos(lengths), np.sin(lengths)
     z_sines, sines_over_z = sines * impedances, sines / impedances
     a, b, c, d = cosines[..., 0], z_sines[..., 0], sines_over_z[..., 0], cosines[..., 0]
     for index in range(1, lengths.shape[-1]):

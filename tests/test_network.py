@@ -94,3 +94,17 @@ def test_lossless_reflection_in_real_arithmetic_equals_the_complex_route(seed):
     parts = network.lossless_cascade(impedances, angles)
     complex_route = np.abs(network.reflection(network.input_impedance(parts.complex(), loads), 50.0))
     np.testing.assert_allclose(network.lossless_reflection(parts, loads, 50.0), complex_route, rtol=1e-12, atol=1e-15)
+
+
+def test_commensurate_sections_share_their_trigonometry_without_changing_the_product():
+    # Equal electrical lengths take the shared cos/sin shortcut; the reference is the general
+    # (lossy-form) product with zero loss, which evaluates every section's cosh and sinh itself.
+    rng = np.random.default_rng(4)
+    impedances = rng.uniform(20, 120, 6)
+    angles = np.outer(np.linspace(0.1, 3.0, 401), np.ones(6))
+    shortcut = network.cascade(impedances, angles)
+    general = network.cascade(impedances, angles, np.zeros_like(angles))
+    for ours, reference in zip(
+        (shortcut.a, shortcut.b, shortcut.c, shortcut.d), (general.a, general.b, general.c, general.d), strict=True
+    ):
+        np.testing.assert_allclose(ours, reference, rtol=1e-12, atol=1e-12)
