@@ -266,9 +266,22 @@ def _check_group(
     )
     curve_losses = [None] * len(indices) if losses is None else losses[:, ::every].tolist()
     max_losses = [None] * len(indices) if losses is None else np.max(losses, axis=-1).tolist()
+    worst_rows, where_rows, spec_rows = worst.tolist(), where.tolist(), specs[indices].tolist()
+    return_loss_rows = return_loss_db(worst).tolist()
     results = []
-    for position, index in enumerate(indices):
-        figures = _figures(lines[index], worst[position], where[position], specs[index], max_losses[position])
+    for position in range(len(indices)):
+        worst_value, spec = worst_rows[position], spec_rows[position]
+        figures = VerifiedFigures(
+            max_reflection=worst_value,
+            max_vswr=vswr(worst_value),
+            min_return_loss_db=return_loss_rows[position],
+            worst_frequency_hz=where_rows[position],
+            spec_max_reflection=spec,
+            meets_spec=worst_value <= spec * (1.0 + 1e-9),
+            includes_dispersion=line.medium.dispersive,
+            includes_losses=line.medium.lossy,
+            max_insertion_loss_db=max_losses[position],
+        )
         curve = ResponseCurve(
             frequency_hz=frequencies[position],
             reflection_magnitude=magnitudes[position],
@@ -277,21 +290,6 @@ def _check_group(
         )
         results.append((figures, curve))
     return results
-
-
-def _figures(line: LineCascade, worst: float, where: float, spec: float, max_loss: float | None) -> VerifiedFigures:
-    worst = float(worst)
-    return VerifiedFigures(
-        max_reflection=worst,
-        max_vswr=vswr(worst),
-        min_return_loss_db=float(return_loss_db(worst)),
-        worst_frequency_hz=float(where),
-        spec_max_reflection=float(spec),
-        meets_spec=worst <= spec * (1.0 + 1e-9),
-        includes_dispersion=line.medium.dispersive,
-        includes_losses=line.medium.lossy,
-        max_insertion_loss_db=max_loss,
-    )
 
 
 def check(
