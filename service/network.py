@@ -154,6 +154,6 @@ def s_parameters(network: Abcd, source_ohm: float, load_ohm: float) -> tuple[np.
 
 
 def junction_reflections(impedances_ohm: np.ndarray) -> np.ndarray:
-    """Reflection at each step between consecutive impedances (source, sections..., load)."""
+    """Reflection at each step between consecutive impedances (source, sections..., load), along the last axis."""
     z = np.asarray(impedances_ohm, dtype=float)
-    return (z[1:] - z[:-1]) / (z[1:] + z[:-1])
+    return (z[..., 1:] - z[..., :-1]) / (z[..., 1:] + z[..., :-1])

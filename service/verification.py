@@ -15,7 +15,7 @@ import numpy as np
 from service import network
 from service.loads import FixedLoad, LoadModel
 from service.media import Medium
-from service.schemas.results import JunctionResult, ResponseCurve, VerifiedFigures
+from service.schemas.results import JunctionResult, ResponseCurve, SectionResult, VerifiedFigures
 
 MIN_CHECK_POINTS = 257
 MAX_CHECK_POINTS = 20001
@@ -301,16 +301,51 @@ def check(
     )[0]
 
 
-def junction_results(line: LineCascade, impedances_ohm: np.ndarray) -> list[JunctionResult]:
-    """Reflection and transmission at every step, source to load, for the sections' impedances
-    (at the frequency they were taken at).
+@dataclass(frozen=True)
+class SectionTable:
+    """One line's sections and junctions at one frequency, source side first."""
 
-    The step into the load is listed only for a fixed resistive load; for other loads its
-    reflection is complex or changes with frequency.
+    sections: list[SectionResult]
+    junctions: list[JunctionResult]
+
+
+def section_tables(lines: list[LineCascade], frequencies_hz: np.ndarray) -> list[SectionTable]:
+    """Every line's section table at its frequency (the band centre), a stack of lines at a time.
+
+    A section lists its impedance, electrical length, permittivity and geometry there; a junction
+    its reflection and transmission. The step into the load is listed only for a load that is
+    resistive and the same at every frequency; for other loads its reflection is complex or
+    changes with frequency.
     """
-    chain = np.concatenate(([line.source_ohm], impedances_ohm))
-    if not line.load.frequency_dependent:
-        load = complex(line.load.impedance_ohm(np.zeros(1))[0])
-        if load.imag == 0.0:
-            chain = np.append(chain, load.real)
-    return [JunctionResult(reflection=r, transmission=1.0 + r) for r in network.junction_reflections(chain).tolist()]
+    tables: list[SectionTable | None] = [None] * len(lines)
+    for indices in stacked_groups(lines):
+        members = [lines[i] for i in indices]
+        medium = members[0].medium
+        geometry, lengths = np.stack([m.geometry for m in members]), np.stack([m.lengths_m for m in members])
+        frequency = np.asarray(frequencies_hz, dtype=float)[indices][:, None]
+        params = medium.parameters(geometry, frequency)
+        degrees = 360.0 * frequency * np.sqrt(params.eps_eff) * lengths / C0
+        loads = [_resistive_load_ohm(m.load) for m in members]
+        chain = np.column_stack(
+            ([m.source_ohm for m in members], params.impedance_ohm, [np.nan if r is None else r for r in loads])
+        )
+        reflections = network.junction_reflections(chain).tolist()
+        names = ["impedance_ohm", "electrical_length_deg", "length_m", "eps_eff"]
+        columns = [params.impedance_ohm, degrees, lengths, params.eps_eff]
+        if medium.geometry_name:
+            names.append(medium.geometry_name)
+            columns.append(geometry)
+        rows = zip(*(np.broadcast_to(c, geometry.shape).tolist() for c in columns), strict=True)
+        for index, row, steps, load in zip(indices, rows, reflections, loads, strict=True):  # load > 0 or None
+            sections = [SectionResult(**dict(zip(names, values, strict=True))) for values in zip(*row, strict=True)]
+            junctions = [JunctionResult(reflection=r, transmission=1.0 + r) for r in (steps if load else steps[:-1])]
+            tables[index] = SectionTable(sections, junctions)
+    return tables
+
+
+def _resistive_load_ohm(load: LoadModel) -> float | None:
+    """The load's resistance if it is resistive and the same at every frequency, else None."""
+    if load.frequency_dependent:
+        return None
+    impedance = complex(load.impedance_ohm(np.zeros(1))[0])
+    return impedance.real if impedance.imag == 0.0 else None

@@ -16,6 +16,7 @@ from service.verification import (
     check,
     check_grid_points,
     check_many,
+    section_tables,
     stack,
     stacked_groups,
 )
@@ -79,3 +80,22 @@ def test_large_stacks_are_cut_into_cache_sized_chunks():
     groups = stacked_groups(lines)
     assert [len(group) for group in groups] == [STACK_DESIGNS, STACK_DESIGNS, 6]
     assert sorted(index for group in groups for index in group) == list(range(len(lines)))
+
+
+@pytest.mark.parametrize("name", MEDIA)
+def test_stacked_section_tables_equal_one_line_at_a_time(name):
+    medium, geometry_range = MEDIA[name]
+    lines = random_lines(medium, geometry_range, 5, seed=9)  # reactive loads: no step into the load
+    lines.append(LineCascade(50.0, FixedLoad(75.0), medium, lines[0].geometry, lines[0].lengths_m))
+    centers = np.linspace(1e9, 3e9, len(lines))
+    together = section_tables(lines, centers)
+    for line, center, table in zip(lines, centers, together, strict=True):
+        alone = section_tables([line], np.array([center]))[0]
+        assert table == alone
+        assert len(table.sections) == line.geometry.size
+        resistive = line.load.reactance_ohm == 0.0
+        assert len(table.junctions) == line.geometry.size + (1 if resistive else 0)
+    # The step into the resistive load: (75 - Z_last) / (75 + Z_last), from the section's impedance
+    last = together[-1]
+    z_last = last.sections[-1].impedance_ohm
+    assert last.junctions[-1].reflection == pytest.approx((75.0 - z_last) / (75.0 + z_last), rel=1e-15)

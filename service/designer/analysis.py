@@ -8,7 +8,7 @@ from service.designer.lines import DesignOptions, checked_blocks, realize
 from service.designer.reporting import bode_fano_warnings, spec_warnings
 from service.schemas.networks import AnalyzeRequest
 from service.schemas.results import AnalysisResult
-from service.verification import check
+from service.verification import check, section_tables
 
 
 def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> AnalysisResult:
@@ -29,7 +29,8 @@ def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> An
         line = line.with_sections(line.geometry, np.where(given, physical, line.lengths_m))
     band = request.band
     verified, curve = check(line, band.start_hz, band.stop_hz, request.spec_reflection, request.points)
-    blocks = checked_blocks(line, request, verified, curve, options)
+    table = section_tables([line], np.array([band.center_hz]))[0]
+    blocks = checked_blocks(line, request, verified, curve, table, options)
     warnings = [*blocks.pop("medium_notes"), *spec_warnings(verified)]
     warnings += bode_fano_warnings(blocks["bode_fano"], request.spec_reflection)
     return AnalysisResult(**blocks, warnings=warnings)

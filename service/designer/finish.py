@@ -28,7 +28,7 @@ from service.schemas.results import (
     VerifiedFigures,
 )
 from service.schemas.transformers import MatchRequest
-from service.verification import LineCascade, check, check_many
+from service.verification import LineCascade, SectionTable, check, check_many, section_tables
 
 THEORY_METHODS = ("binomial", "chebyshev")  # the methods a request may switch to the exact theory
 
@@ -68,15 +68,16 @@ def finish_many(jobs: list[Job], options: DesignOptions | None = None) -> list[T
     stops = np.array([j.request.band.stop_hz for j in jobs])
     specs = np.array([j.request.spec_reflection for j in jobs])
     points = np.array([j.request.points for j in jobs])
-    results = []
-    checks = check_many(lines, starts, stops, specs, points)
-    for job, line, (figures, curve) in zip(jobs, lines, checks, strict=True):
+    checked = []
+    for job, line, (figures, curve) in zip(jobs, lines, check_many(lines, starts, stops, specs, points), strict=True):
         refinement = None
         if job.target.load.frequency_dependent:
             line, refinement, curve = _refine(line, job.request, figures)
             figures = refinement.after
-        results.append(_assemble(job, line, figures, refinement, curve, options))
-    return results
+        checked.append((job, line, figures, refinement, curve))
+    centers = np.array([j.request.band.center_hz for j in jobs])
+    tables = section_tables([line for _, line, *_ in checked], centers)
+    return [_assemble(*parts, table, options) for parts, table in zip(checked, tables, strict=True)]
 
 
 def _refine(
@@ -94,6 +95,7 @@ def _assemble(
     verified: VerifiedFigures,
     refinement: RefinementFigures | None,
     curve: ResponseCurve,
+    table: SectionTable,
     options: DesignOptions,
 ) -> TransformerDesign:
     request, target, synthesized, theory = job.request, job.target, job.synthesized, job.theory
@@ -104,7 +106,7 @@ def _assemble(
         covers_band=synthesized.predicted_max_reflection <= spec * (1.0 + 1e-9),
         departure_fraction=_departure(verified.max_reflection, synthesized.predicted_max_reflection),
     )
-    blocks = checked_blocks(line, request, verified, curve, options)
+    blocks = checked_blocks(line, request, verified, curve, table, options)
     requested_fraction = (band.stop_hz - band.start_hz) / band.center_hz
     warnings = [*synthesized.notes, *job.notes, *blocks.pop("medium_notes")]
     warnings += coverage_warnings(spec, requested_fraction, predicted)

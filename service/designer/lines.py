@@ -13,9 +13,9 @@ from service.errors import UnmeetableRequestError
 from service.loads import CircuitLoad, LoadModel
 from service.media import IdealLine, RealizationError
 from service.network import SPEED_OF_LIGHT_M_PER_S
-from service.schemas.results import BodeFanoFigures, ResponseCurve, SectionResult, VerifiedFigures
+from service.schemas.results import BodeFanoFigures, ResponseCurve, VerifiedFigures
 from service.schemas.transformers import MatchRequest
-from service.verification import LineCascade, junction_results
+from service.verification import LineCascade, SectionTable
 
 REAL_TOLERANCE = 1e-12  # |X| / |Z| below which a load counts as resistive
 DEFAULT_MIN_FEATURE_M = 1e-4
@@ -108,33 +108,22 @@ def bode_fano_figures(load: LoadModel, request: MatchRequest, verified: Verified
     )
 
 
-def section_results(line: LineCascade, frequency_hz: float) -> tuple[list[SectionResult], np.ndarray]:
-    """Each section's impedance, electrical length, permittivity and geometry at one frequency,
-    and the impedances themselves."""
-    params = line.medium.parameters(line.geometry, np.array([frequency_hz]))
-    impedances, eps = params.impedance_ohm, params.eps_eff
-    degrees = 360.0 * frequency_hz * np.sqrt(eps) * line.lengths_m / SPEED_OF_LIGHT_M_PER_S
-    name = line.medium.geometry_name
-    columns = (impedances, degrees, line.lengths_m, eps, line.geometry)
-    results = [
-        SectionResult(impedance_ohm=z, electrical_length_deg=d, length_m=m, eps_eff=e, **({name: g} if name else {}))
-        for z, d, m, e, g in zip(*(np.asarray(column, dtype=float).tolist() for column in columns), strict=True)
-    ]
-    return results, impedances
-
-
 def checked_blocks(
-    line: LineCascade, request: MatchRequest, verified: VerifiedFigures, curve: ResponseCurve, options: DesignOptions
+    line: LineCascade,
+    request: MatchRequest,
+    verified: VerifiedFigures,
+    curve: ResponseCurve,
+    table: SectionTable,
+    options: DesignOptions,
 ) -> dict[str, object]:
     """The response blocks every verified result shares, and the medium's own notes."""
     band = request.band
     medium = line.medium
-    sections, impedances = section_results(line, band.center_hz)
     return {
         "center_hz": band.center_hz,
-        "sections": sections,
+        "sections": table.sections,
         "total_length_m": float(np.sum(line.lengths_m)),
-        "junctions": junction_results(line, impedances),
+        "junctions": table.junctions,
         "verified": verified,
         "response": curve,
         "velocity_factor": medium.velocity_factor if isinstance(medium, IdealLine) else None,
