@@ -20,9 +20,8 @@ from service.schemas.results import JunctionResult, ResponseCurve, SectionResult
 MIN_CHECK_POINTS = 257
 MAX_CHECK_POINTS = 20001
 CHECK_POINTS_PER_LOBE = 48
-REFINE_POINTS = 17  # per round, spanning the neighbours of the current best
-REFINE_ROUNDS = 2
-REFINE_OFFSETS = np.linspace(-1.0, 1.0, REFINE_POINTS)  # in steps of the current grid
+REFINE_POINTS = 17  # per peak, spanning the neighbours of its best coarse sample
+REFINE_OFFSETS = np.linspace(-1.0, 1.0, REFINE_POINTS)  # in steps of the coarse grid
 PEAKS_REFINED = 6
 RETURN_LOSS_CAP_DB = 300.0
 STACK_DESIGNS = 32  # designs per stacked cascade evaluation
@@ -190,9 +189,10 @@ def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -
     """Largest |reflection| over each row of the frequency grid (..., F), and where it occurs.
 
     `values` is |reflection| on the grid, which samples every lobe of the response; the highest few
-    local maxima (band edges included) are then each pinned down by two rounds of finer grids
-    between their neighbours, since near-equal ripple peaks can swap order between the coarse
-    samples and the true peaks.
+    local maxima (band edges included) are each refined, since near-equal ripple peaks can swap
+    order between the coarse samples and the true peaks: a finer grid between the neighbours of
+    each, then one evaluation at the vertex of the parabola through the best fine sample and its
+    two neighbours. Every figure returned is an evaluated value, never an interpolated one.
     """
     lead, count = grid.shape[:-1], grid.shape[-1]
     grid, values = grid.reshape(-1, count), values.reshape(-1, count)
@@ -204,15 +204,21 @@ def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -
     candidates = min(PEAKS_REFINED, count)
     top = np.argpartition(-np.where(peaks, values, -np.inf), candidates - 1, axis=-1)[:, :candidates]
     step = (grid[:, -1:] - grid[:, :1]) / (count - 1)
-    centre = grid[rows, top]
     peak_axis = np.arange(candidates)[None, :]
     low, high = grid[:, :1, None], grid[:, -1:, None]
-    for _ in range(REFINE_ROUNDS):
-        fine = np.clip(centre[..., None] + step[..., None] * REFINE_OFFSETS, low, high)
-        fine_values = line.reflection(fine.reshape(*lead, -1)).reshape(fine.shape)
-        best = np.argmax(fine_values, axis=-1)
-        centre, worst = fine[rows, peak_axis, best], fine_values[rows, peak_axis, best]
-        step = step * 2.0 / (REFINE_POINTS - 1)
+    fine = np.clip(grid[rows, top][..., None] + step[..., None] * REFINE_OFFSETS, low, high)
+    fine_values = line.reflection(fine.reshape(*lead, -1)).reshape(fine.shape)
+    best = np.argmax(fine_values, axis=-1)
+    middle = np.clip(best, 1, REFINE_POINTS - 2)
+    before, at, after = (fine_values[rows, peak_axis, middle + k] for k in (-1, 0, 1))
+    curvature = before - 2.0 * at + after
+    shift = np.clip(0.5 * (before - after) / np.where(curvature < 0.0, curvature, -np.inf), -1.0, 1.0)
+    fine_step = step * 2.0 / (REFINE_POINTS - 1)
+    vertex = np.clip(fine[rows, peak_axis, middle] + shift * fine_step, low[..., 0], high[..., 0])
+    vertex_values = line.reflection(vertex.reshape(*lead, -1)).reshape(vertex.shape)
+    sampled, sampled_at = fine_values[rows, peak_axis, best], fine[rows, peak_axis, best]
+    better = vertex_values > sampled
+    worst, centre = np.where(better, vertex_values, sampled), np.where(better, vertex, sampled_at)
     index = np.argmax(worst, axis=-1)[:, None]
     return worst[rows, index][:, 0].reshape(lead), centre[rows, index][:, 0].reshape(lead)
 

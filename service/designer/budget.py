@@ -12,13 +12,13 @@ from typing import Any
 
 from service.errors import UnmeetableRequestError
 from service.settings import Settings
-from service.verification import MAX_CHECK_POINTS, MIN_CHECK_POINTS, PEAKS_REFINED, REFINE_ROUNDS
+from service.verification import MAX_CHECK_POINTS, MIN_CHECK_POINTS, PEAKS_REFINED
 from service.verification import REFINE_POINTS as VERIFY_REFINE_POINTS
 
 PER_DESIGN_S = 1.5e-3
 PER_SECTION_POINT_S = 4e-8
 CHECK_POINTS_RANGE = (MIN_CHECK_POINTS, MAX_CHECK_POINTS)
-REFINE_POINTS = PEAKS_REFINED * REFINE_ROUNDS * VERIFY_REFINE_POINTS
+REFINE_POINTS = PEAKS_REFINED * (VERIFY_REFINE_POINTS + 1)  # a fine grid and a vertex per peak
 PHYSICAL_MEDIUM_FACTOR = 3.0
 SPEC_DRIVEN_FACTOR = 2.0
 TAPER_FACTOR = 4.0
