@@ -332,16 +332,15 @@ def section_tables(lines: list[LineCascade], frequencies_hz: np.ndarray) -> list
         params = medium.parameters(geometry, frequency)
         degrees = 360.0 * frequency * np.sqrt(params.eps_eff) * lengths / C0
         loads = [_resistive_load_ohm(m.load) for m in members]
-        chain = np.column_stack(
-            ([m.source_ohm for m in members], params.impedance_ohm, [np.nan if r is None else r for r in loads])
-        )
+        ends = np.array([[m.source_ohm, np.nan if r is None else r] for m, r in zip(members, loads, strict=True)])
+        chain = np.concatenate((ends[:, :1], params.impedance_ohm, ends[:, 1:]), axis=1)
         reflections = network.junction_reflections(chain).tolist()
         names = ["impedance_ohm", "electrical_length_deg", "length_m", "eps_eff"]
         columns = [params.impedance_ohm, degrees, lengths, params.eps_eff]
         if medium.geometry_name:
             names.append(medium.geometry_name)
             columns.append(geometry)
-        rows = zip(*(np.broadcast_to(c, geometry.shape).tolist() for c in columns), strict=True)
+        rows = zip(*(column.tolist() for column in columns), strict=True)  # each (designs, sections)
         for index, row, steps, load in zip(indices, rows, reflections, loads, strict=True):  # load > 0 or None
             sections = [SectionResult(**dict(zip(names, values, strict=True))) for values in zip(*row, strict=True)]
             junctions = [JunctionResult(reflection=r, transmission=1.0 + r) for r in (steps if load else steps[:-1])]
