@@ -91,14 +91,13 @@ def lossless_cascade(impedances_ohm: np.ndarray, electrical_lengths_rad: np.ndar
     lengths = np.asarray(electrical_lengths_rad, dtype=float)
     shape = np.broadcast_shapes(impedances.shape, lengths.shape)
     lengths = lengths if lengths.shape == shape else np.broadcast_to(lengths, shape)
-    if np.all(lengths == lengths[..., :1]):  # commensurate sections: one cos and sin serve them all
-        cosines, sines = (np.broadcast_to(trig(lengths[..., :1]), shape) for trig in (np.cos, np.sin))
-    else:
-        cosines, sines = np.cos(lengths), np.sin(lengths)
+    commensurate = bool(np.all(lengths == lengths[..., :1]))  # then one cos and sin serve every section
+    angles = lengths[..., :1] if commensurate else lengths
+    cosines, sines = np.cos(angles), np.sin(angles)
     z_sines, sines_over_z = sines * impedances, sines / impedances
     a, b, c, d = cosines[..., 0], z_sines[..., 0], sines_over_z[..., 0], cosines[..., 0]
     for index in range(1, lengths.shape[-1]):
-        cos_t = cosines[..., index]
+        cos_t = cosines[..., 0 if commensurate else index]
         z_sin = z_sines[..., index]
         sin_over_z = sines_over_z[..., index]
         a, b, c, d = (

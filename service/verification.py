@@ -327,7 +327,7 @@ def section_tables(lines: list[LineCascade], frequencies_hz: np.ndarray) -> list
     for indices in stacked_groups(lines):
         members = [lines[i] for i in indices]
         medium = members[0].medium
-        geometry, lengths = np.stack([m.geometry for m in members]), np.stack([m.lengths_m for m in members])
+        geometry, lengths = np.array([m.geometry for m in members]), np.array([m.lengths_m for m in members])
         frequency = np.asarray(frequencies_hz, dtype=float)[indices][:, None]
         params = medium.parameters(geometry, frequency)
         degrees = 360.0 * frequency * np.sqrt(params.eps_eff) * lengths / C0
