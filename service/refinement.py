@@ -15,7 +15,8 @@ from dataclasses import dataclass
 import numpy as np
 from scipy.optimize import minimize
 
-from service.verification import LineCascade, worst_reflection
+from service.line_cascade import LineCascade
+from service.verification import worst_reflection
 
 GRID_POINTS = 81
 MAX_ITERATIONS = 150

@@ -15,7 +15,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from service.verification import LineCascade
+from service.line_cascade import LineCascade
 
 CHUNK_TRIALS = 256
 Z_95 = 1.959963984540054

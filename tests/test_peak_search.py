@@ -5,9 +5,10 @@ import numpy as np
 import pytest
 from scipy.optimize import minimize_scalar
 
+from service.line_cascade import LineCascade
 from service.loads import FixedLoad
 from service.media.ideal import IdealLine
-from service.verification import LineCascade, worst_reflection
+from service.verification import worst_reflection
 
 
 @pytest.mark.parametrize("seed", range(4))

@@ -8,7 +8,8 @@ from service.designer.lines import DesignOptions, checked_blocks, realize
 from service.designer.reporting import bode_fano_warnings, spec_warnings
 from service.schemas.networks import AnalyzeRequest
 from service.schemas.results import AnalysisResult
-from service.verification import check, section_tables
+from service.section_tables import section_tables
+from service.verification import check
 
 
 def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> AnalysisResult:

@@ -5,9 +5,9 @@ from __future__ import annotations
 import numpy as np
 
 from service import network
+from service.line_cascade import LineCascade
 from service.schemas.results import AnalysisResult
 from service.schemas.transformers import MatchRequest
-from service.verification import LineCascade
 
 
 def design_line(request: MatchRequest, design: AnalysisResult) -> LineCascade:

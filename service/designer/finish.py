@@ -19,6 +19,7 @@ from service.designer.reporting import (
     departure_warnings,
     spec_warnings,
 )
+from service.line_cascade import LineCascade
 from service.refinement import refine_minimax
 from service.schemas.results import (
     PredictedFigures,
@@ -28,7 +29,8 @@ from service.schemas.results import (
     VerifiedFigures,
 )
 from service.schemas.transformers import MatchRequest
-from service.verification import LineCascade, SectionTable, check, check_many, section_tables
+from service.section_tables import SectionTable, section_tables
+from service.verification import check, check_many
 
 THEORY_METHODS = ("binomial", "chebyshev")  # the methods a request may switch to the exact theory
 

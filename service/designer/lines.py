@@ -10,12 +10,13 @@ from service.design import band_edge_angle_rad
 from service.design.bode_fano import bode_fano_min_reflection
 from service.design.reactive import RotatingSection, rotating_section
 from service.errors import UnmeetableRequestError
+from service.line_cascade import LineCascade
 from service.loads import CircuitLoad, LoadModel
 from service.media import IdealLine, RealizationError
 from service.network import SPEED_OF_LIGHT_M_PER_S
 from service.schemas.results import BodeFanoFigures, ResponseCurve, VerifiedFigures
 from service.schemas.transformers import MatchRequest
-from service.verification import LineCascade, SectionTable
+from service.section_tables import SectionTable
 
 REAL_TOLERANCE = 1e-12  # |X| / |Z| below which a load counts as resistive
 DEFAULT_MIN_FEATURE_M = 1e-4
