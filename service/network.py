@@ -91,7 +91,7 @@ def lossless_cascade(impedances_ohm: np.ndarray, electrical_lengths_rad: np.ndar
     lengths = np.asarray(electrical_lengths_rad, dtype=float)
     shape = np.broadcast_shapes(impedances.shape, lengths.shape)
     lengths = lengths if lengths.shape == shape else np.broadcast_to(lengths, shape)
-    commensurate = bool(np.all(lengths == lengths[..., :1]))  # then one cos and sin serve every section
+    commensurate = bool((lengths == lengths[..., :1]).all())  # then one cos and sin serve every section
     angles = lengths[..., :1] if commensurate else lengths
     cosines, sines = np.cos(angles), np.sin(angles)
     z_sines, sines_over_z = sines * impedances, sines / impedances

@@ -31,9 +31,9 @@ def check_grid_points(line: LineCascade, stop_hz: float | np.ndarray) -> int:
     """
     stops = np.asarray(stop_hz, dtype=float)
     frequency = stops.reshape(stops.shape + (1,) * (line.geometry.ndim - 1 - stops.ndim))
-    total = float(np.max(np.sum(line.electrical_lengths_rad(frequency), axis=-1)))
+    total = float(line.electrical_lengths_rad(frequency).sum(axis=-1).max())
     lobes = math.ceil(2.0 * total / math.pi) + 1
-    return int(np.clip(CHECK_POINTS_PER_LOBE * lobes + 1, MIN_CHECK_POINTS, MAX_CHECK_POINTS))
+    return min(max(CHECK_POINTS_PER_LOBE * lobes + 1, MIN_CHECK_POINTS), MAX_CHECK_POINTS)
 
 
 def return_loss_db(reflection: np.ndarray | float) -> np.ndarray:
@@ -74,21 +74,26 @@ def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -
     step = (grid[:, -1:] - grid[:, :1]) / (count - 1)
     peak_axis = np.arange(candidates)[None, :]
     low, high = grid[:, :1, None], grid[:, -1:, None]
-    fine = np.clip(grid[rows, top][..., None] + step[..., None] * REFINE_OFFSETS, low, high)
+    fine = _within(grid[rows, top][..., None] + step[..., None] * REFINE_OFFSETS, low, high)
     fine_values = line.reflection(fine.reshape(*lead, -1)).reshape(fine.shape)
     best = np.argmax(fine_values, axis=-1)
-    middle = np.clip(best, 1, REFINE_POINTS - 2)
+    middle = _within(best, 1, REFINE_POINTS - 2)
     before, at, after = (fine_values[rows, peak_axis, middle + k] for k in (-1, 0, 1))
     curvature = before - 2.0 * at + after
-    shift = np.clip(0.5 * (before - after) / np.where(curvature < 0.0, curvature, -np.inf), -1.0, 1.0)
+    shift = _within(0.5 * (before - after) / np.where(curvature < 0.0, curvature, -np.inf), -1.0, 1.0)
     fine_step = step * 2.0 / (REFINE_POINTS - 1)
-    vertex = np.clip(fine[rows, peak_axis, middle] + shift * fine_step, low[..., 0], high[..., 0])
+    vertex = _within(fine[rows, peak_axis, middle] + shift * fine_step, low[..., 0], high[..., 0])
     vertex_values = line.reflection(vertex.reshape(*lead, -1)).reshape(vertex.shape)
     sampled, sampled_at = fine_values[rows, peak_axis, best], fine[rows, peak_axis, best]
     better = vertex_values > sampled
     worst, centre = np.where(better, vertex_values, sampled), np.where(better, vertex, sampled_at)
     index = np.argmax(worst, axis=-1)[:, None]
     return worst[rows, index][:, 0].reshape(lead), centre[rows, index][:, 0].reshape(lead)
+
+
+def _within(values: np.ndarray, low: np.ndarray | float, high: np.ndarray | float) -> np.ndarray:
+    """values clipped to [low, high] (np.clip's argument checks cost more than the clipping here)."""
+    return np.minimum(np.maximum(values, low), high)
 
 
 def worst_reflection(line: LineCascade, start_hz: float, stop_hz: float) -> tuple[float, float]:
