@@ -26,7 +26,7 @@ def impedances_by_layer_peeling(source_ohm: ArrayLike, load_ohm: ArrayLike, weig
     rho = ((load - source) / (load + source))[..., None]
     matched = rho == 0.0
     rho = np.where(matched, 0.5, rho)  # any mismatch will do; matched rows are replaced below
-    scale = np.abs(rho) / np.sqrt(1.0 - rho * rho) / np.sum(weights, axis=-1, keepdims=True)
+    scale = np.abs(rho) / np.sqrt(1.0 - rho * rho) / weights.sum(axis=-1, keepdims=True)
     numerator = np.copysign(scale, rho) * weights
     steps = _peel_junctions(numerator, _spectral_factor(numerator))
     ratios = np.cumprod((1.0 + steps[..., :-1]) / (1.0 - steps[..., :-1]), axis=-1)
@@ -54,8 +54,8 @@ def _spectral_factor(numerator: np.ndarray) -> np.ndarray:
         root = outside[..., index : index + 1]
         factor[..., 1 : index + 2] = factor[..., 1 : index + 2] - root * factor[..., : index + 1]
     factor = np.real(factor)[..., ::-1]
-    target = np.sqrt(1.0 + np.sum(numerator, axis=-1, keepdims=True) ** 2)
-    return factor * (target / np.sum(factor, axis=-1, keepdims=True))
+    target = np.sqrt(1.0 + numerator.sum(axis=-1, keepdims=True) ** 2)
+    return factor * (target / factor.sum(axis=-1, keepdims=True))
 
 
 def _polynomial_roots(coefficients: np.ndarray) -> np.ndarray:
