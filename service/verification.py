@@ -70,13 +70,13 @@ def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -
     peaks[:, 0] = values[:, 0] >= values[:, 1]
     peaks[:, -1] = values[:, -1] >= values[:, -2]
     candidates = min(PEAKS_REFINED, count)
-    top = np.argpartition(-np.where(peaks, values, -np.inf), candidates - 1, axis=-1)[:, :candidates]
+    top = (-np.where(peaks, values, -np.inf)).argpartition(candidates - 1, axis=-1)[:, :candidates]
     step = (grid[:, -1:] - grid[:, :1]) / (count - 1)
     peak_axis = np.arange(candidates)[None, :]
     low, high = grid[:, :1, None], grid[:, -1:, None]
     fine = _within(grid[rows, top][..., None] + step[..., None] * REFINE_OFFSETS, low, high)
     fine_values = line.reflection(fine.reshape(*lead, -1)).reshape(fine.shape)
-    best = np.argmax(fine_values, axis=-1)
+    best = fine_values.argmax(axis=-1)
     middle = _within(best, 1, REFINE_POINTS - 2)
     before, at, after = (fine_values[rows, peak_axis, middle + k] for k in (-1, 0, 1))
     curvature = before - 2.0 * at + after
@@ -87,7 +87,7 @@ def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -
     sampled, sampled_at = fine_values[rows, peak_axis, best], fine[rows, peak_axis, best]
     better = vertex_values > sampled
     worst, centre = np.where(better, vertex_values, sampled), np.where(better, vertex, sampled_at)
-    index = np.argmax(worst, axis=-1)[:, None]
+    index = worst.argmax(axis=-1)[:, None]
     return worst[rows, index][:, 0].reshape(lead), centre[rows, index][:, 0].reshape(lead)
 
 

@@ -29,7 +29,7 @@ def impedances_by_layer_peeling(source_ohm: ArrayLike, load_ohm: ArrayLike, weig
     scale = np.abs(rho) / np.sqrt(1.0 - rho * rho) / weights.sum(axis=-1, keepdims=True)
     numerator = np.copysign(scale, rho) * weights
     steps = _peel_junctions(numerator, _spectral_factor(numerator))
-    ratios = np.cumprod((1.0 + steps[..., :-1]) / (1.0 - steps[..., :-1]), axis=-1)
+    ratios = ((1.0 + steps[..., :-1]) / (1.0 - steps[..., :-1])).cumprod(axis=-1)
     return np.where(matched, 1.0, ratios) * source[..., None]
 
 
@@ -46,14 +46,14 @@ def _spectral_factor(numerator: np.ndarray) -> np.ndarray:
         product[..., index : index + sections + 1] += numerator[..., index : index + 1] * numerator[..., ::-1]
     product[..., sections] += 1.0
     roots = _polynomial_roots(product)
-    order = np.argsort(np.abs(roots), axis=-1)
+    order = np.abs(roots).argsort(axis=-1)
     outside = np.take_along_axis(roots, order[..., sections:], axis=-1)
     factor = np.zeros((*numerator.shape[:-1], sections + 1), dtype=complex)  # descending powers
     factor[..., 0] = 1.0
     for index in range(sections):  # multiply in (z - root), one root at a time
         root = outside[..., index : index + 1]
         factor[..., 1 : index + 2] = factor[..., 1 : index + 2] - root * factor[..., : index + 1]
-    factor = np.real(factor)[..., ::-1]
+    factor = factor.real[..., ::-1]
     target = np.sqrt(1.0 + numerator.sum(axis=-1, keepdims=True) ** 2)
     return factor * (target / factor.sum(axis=-1, keepdims=True))
 
