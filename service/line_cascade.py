@@ -45,19 +45,20 @@ class LineCascade:
 
     def _lossless_abcd(self, frequency_hz: np.ndarray) -> network.LosslessAbcd:
         """The real ABCD parts at each frequency, for a medium without losses."""
-        f = np.asarray(frequency_hz, dtype=float)[..., None]
-        if self.medium.dispersive:
-            params = self.medium.parameters(self.geometry, f)
-            return network.lossless_cascade(params.impedance_ohm, f * self._phase_per_hz(params.eps_eff))
-        impedance, phase_per_hz = self._fixed_sections
-        return network.lossless_cascade(impedance, f * phase_per_hz)
+        return network.lossless_cascade(*self._impedances_and_angles(frequency_hz))
 
     def electrical_lengths_rad(self, frequency_hz: np.ndarray) -> np.ndarray:
         """beta l of every section at each frequency: (..., F, S) for frequencies (..., F)."""
+        return self._impedances_and_angles(frequency_hz)[1]
+
+    def _impedances_and_angles(self, frequency_hz: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """Each section's impedance and beta l at each frequency (cached for non-dispersive media)."""
         f = np.asarray(frequency_hz, dtype=float)[..., None]
         if self.medium.dispersive:
-            return f * self._phase_per_hz(self.medium.parameters(self.geometry, f).eps_eff)
-        return f * self._fixed_sections[1]
+            params = self.medium.parameters(self.geometry, f)
+            return params.impedance_ohm, f * self._phase_per_hz(params.eps_eff)
+        impedance, phase_per_hz = self._fixed_sections
+        return impedance, f * phase_per_hz
 
     @functools.cached_property
     def _fixed_sections(self) -> tuple[np.ndarray, np.ndarray]:

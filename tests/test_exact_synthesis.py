@@ -15,8 +15,6 @@ from service.design import (
     binomial,
     chebyshev,
     stepped_many,
-    weighted_binomial,
-    weighted_chebyshev,
 )
 from service.design.exact import _spectral_factor
 from service.design.multisection import chebyshev_weights
@@ -56,7 +54,7 @@ def test_exact_chebyshev_has_equal_ripple_and_edges_on_the_band(sections, ratio)
     # the cascade's in-band peaks all equal the ripple and the band edges sit at theta_m.
     source, load = 50.0, 50.0 * ratio
     edge = band_edge_angle_rad(1.0, 3.0 if ratio < 50 else 2.2)
-    design = chebyshev(source, load, sections, edge, None, EXACT)
+    design = chebyshev(source, load, sections, edge, None, EXACT).stepped()
     rho = (load - source) / (load + source)
     ripple = loss_to_reflection(rho / math.sqrt(1 - rho**2) / math.cosh(sections * math.acosh(1 / math.cos(edge))))
     peaks, values = in_band_peaks(design.impedances_ohm, source, load, edge)
@@ -76,7 +74,7 @@ def test_exact_maximally_flat(sections, ratio):
     # band-edge value given by the formula, on the independent cascade.
     source, load = 50.0, 50.0 / ratio
     edge = band_edge_angle_rad(1.0, 3.0)
-    design = binomial(source, load, sections, edge, 0.05, EXACT)
+    design = binomial(source, load, sections, edge, 0.05, EXACT).stepped()
     rho = (load - source) / (load + source)
     kappa = abs(rho) / math.sqrt(1 - rho**2)
     theta = np.array([edge, math.pi / 2, math.pi - edge])
@@ -91,7 +89,10 @@ def test_exact_maximally_flat(sections, ratio):
 def test_one_section_exact_is_the_quarter_wave():
     # N = 1: both exact designs reduce to Z1 = sqrt(Z0 ZL) (textbook quarter-wave result).
     edge = band_edge_angle_rad(1.0, 3.0)
-    for design in (binomial(50, 200, 1, edge, 0.1, EXACT), chebyshev(50, 200, 1, edge, None, EXACT)):
+    for design in (
+        binomial(50, 200, 1, edge, 0.1, EXACT).stepped(),
+        chebyshev(50, 200, 1, edge, None, EXACT).stepped(),
+    ):
         assert design.impedances_ohm == pytest.approx([100.0], rel=1e-12)
 
 
@@ -104,11 +105,11 @@ def test_theories_converge_for_small_ratios(method):
     for ratio in (1.5, 1.1, 1.02):
         if method == "binomial":
             approx, exact = (
-                binomial(50, 50 * ratio, 4, edge, 0.1, t).impedances_ohm for t in (SMALL_REFLECTION, EXACT)
+                binomial(50, 50 * ratio, 4, edge, 0.1, t).stepped().impedances_ohm for t in (SMALL_REFLECTION, EXACT)
             )
         else:
             approx, exact = (
-                chebyshev(50, 50 * ratio, 4, edge, None, t).impedances_ohm for t in (SMALL_REFLECTION, EXACT)
+                chebyshev(50, 50 * ratio, 4, edge, None, t).stepped().impedances_ohm for t in (SMALL_REFLECTION, EXACT)
             )
         difference = np.max(np.abs(np.log(exact / approx)))
         assert previous is None or difference < previous / 10
@@ -148,11 +149,11 @@ def test_designs_synthesized_together_equal_designs_made_alone():
         theory = EXACT if rng.random() < 0.6 else SMALL_REFLECTION
         sections, load = int(rng.integers(1, 9)), float(rng.uniform(2.0, 2000.0))
         if rng.random() < 0.5:
-            weighted.append(weighted_chebyshev(50.0, load, sections, edge, None, theory))
+            weighted.append(chebyshev(50.0, load, sections, edge, None, theory))
         else:
-            weighted.append(weighted_binomial(50.0, load, sections, edge, 0.05, theory))
+            weighted.append(binomial(50.0, load, sections, edge, 0.05, theory))
     together = stepped_many(weighted)
-    for design, alone in zip(together, (stepped_many([w])[0] for w in weighted), strict=True):
+    for design, alone in zip(together, (w.stepped() for w in weighted), strict=True):
         np.testing.assert_allclose(design.impedances_ohm, alone.impedances_ohm, rtol=1e-12)
         assert design.predicted_max_reflection == alone.predicted_max_reflection
 

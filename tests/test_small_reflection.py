@@ -20,7 +20,7 @@ from service.design.multisection import chebyshev_peak_ratio, chebyshev_weights
 def test_binomial_three_sections_textbook_example():
     # Pozar, Microwave Engineering, 3rd/4th ed., Example 5.6 (from memory): 100 ohm line to a
     # 50 ohm load, N = 3, binomial: 91.7, 70.7, 54.5 ohm; bandwidth at |Gamma| = 0.05 about 70%.
-    design = binomial(100.0, 50.0, 3, band_edge_angle_rad(1.0, 3.0), 0.05)
+    design = binomial(100.0, 50.0, 3, band_edge_angle_rad(1.0, 3.0), 0.05).stepped()
     assert design.impedances_ohm == pytest.approx([91.7, 70.7, 54.5], abs=0.05)
     assert design.predicted_bandwidth_fraction == pytest.approx(0.70, abs=0.02)
 
@@ -28,7 +28,7 @@ def test_binomial_three_sections_textbook_example():
 def test_chebyshev_three_sections_textbook_example():
     # Pozar, Microwave Engineering, 3rd/4th ed., Example 5.7 (from memory): 50 ohm line to a
     # 100 ohm load, N = 3, ripple 0.05: about 57.5, 70.7, 87.0 ohm, bandwidth about 101%.
-    design = chebyshev(50.0, 100.0, 3, band_edge_angle_rad(1.0, 3.0), ripple=0.05)
+    design = chebyshev(50.0, 100.0, 3, band_edge_angle_rad(1.0, 3.0), ripple=0.05).stepped()
     assert design.impedances_ohm == pytest.approx([57.5, 70.7, 87.0], rel=0.005)
     assert design.predicted_bandwidth_fraction == pytest.approx(1.01, abs=0.01)
     assert design.predicted_max_reflection == pytest.approx(0.05, rel=1e-12)
@@ -72,9 +72,9 @@ def test_designs_are_symmetric_and_monotone(method, sections):
     # Standard property of both designs: Z_n Z_{N+1-n} = Z0 ZL, impedances step monotonically.
     edge = band_edge_angle_rad(2.0e9, 4.0e9)
     if method == "binomial":
-        design = binomial(50.0, 12.5, sections, edge, 0.05)
+        design = binomial(50.0, 12.5, sections, edge, 0.05).stepped()
     else:
-        design = chebyshev(50.0, 12.5, sections, edge)
+        design = chebyshev(50.0, 12.5, sections, edge).stepped()
     z = design.impedances_ohm
     assert z * z[::-1] == pytest.approx(np.full(sections, 50.0 * 12.5), rel=1e-12)
     assert np.all(np.diff(z) < 0) and z[0] < 50.0 and z[-1] > 12.5
@@ -102,5 +102,5 @@ def test_close_load_gives_one_section():
     edge = band_edge_angle_rad(1.0, 3.0)
     assert chebyshev_sections_for(50.0, 52.0, edge, 0.05) == 1
     assert binomial_sections_for(50.0, 52.0, edge, 0.05) == 1
-    degenerate = chebyshev(50.0, 52.0, 4, edge, ripple=0.05)
+    degenerate = chebyshev(50.0, 52.0, 4, edge, ripple=0.05).stepped()
     assert degenerate.notes and degenerate.predicted_max_reflection <= 0.05

@@ -10,9 +10,8 @@ from fastapi.responses import Response, StreamingResponse
 from service.api.delivery import json_response
 from service.api.documented import error_responses
 from service.api.scheduling import run_sized
-from service.designer.budget import check_budget, design_seconds
+from service.designer.budget import check_batch, check_sweep
 from service.designer.bulk import design_items, sweep_results, sweep_size, sweep_worst_item
-from service.errors import UnmeetableRequestError
 from service.examples import request_examples
 from service.formats.csv_table import sweep_csv_lines
 from service.schemas.bulk import BatchRequest, BatchResult, SweepRequest, SweepResult
@@ -31,13 +30,7 @@ def build_router(settings: Settings) -> APIRouter:
     @router.post("/batch", response_model=BatchResult, summary="Many designs in one request")
     async def batch(request: Annotated[BatchRequest, Body(openapi_examples=batch_examples)]) -> Response:
         """Each item is validated and designed on its own; results come back in order, errors at their index."""
-        if len(request.requests) > settings.max_batch_items:
-            raise UnmeetableRequestError(
-                "requests", f"at most {settings.max_batch_items} items per batch; this one has {len(request.requests)}"
-            )
-        items = [item for item in request.requests if isinstance(item, dict)]
-        seconds = sum(design_seconds(item) for item in items)
-        check_budget(seconds, settings, "requests")
+        seconds = check_batch(request.requests, settings)
 
         def work() -> BatchResult:
             return BatchResult(results=design_items(request.requests, request.include_curves, options, settings))
@@ -53,11 +46,7 @@ def build_router(settings: Settings) -> APIRouter:
     def sweep(request: Annotated[SweepRequest, Body(openapi_examples=sweep_examples)]) -> SweepResult | Response:
         """Expand the grid on the server and design every point, as JSON, CSV or streamed NDJSON."""
         total = sweep_size(request)
-        if total > settings.max_sweep_designs:
-            raise UnmeetableRequestError(
-                "vary", f"the grid holds {total} designs; at most {settings.max_sweep_designs}"
-            )
-        check_budget(total * design_seconds(sweep_worst_item(request)), settings, "vary")
+        check_sweep(total, sweep_worst_item(request), settings)
         parameters = list(request.vary)
         if request.output == "json":
             return SweepResult(

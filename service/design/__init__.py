@@ -9,8 +9,6 @@ from service.design.multisection import (
     chebyshev_sections_for,
     quarter_wave,
     stepped_many,
-    weighted_binomial,
-    weighted_chebyshev,
 )
 from service.design.stepped import SteppedDesign, band_edge_angle_rad, load_reflection
 from service.design.theory import EXACT, SMALL_REFLECTION, THEORIES, Theory
@@ -31,6 +29,4 @@ __all__ = [
     "load_reflection",
     "quarter_wave",
     "stepped_many",
-    "weighted_binomial",
-    "weighted_chebyshev",
 ]

@@ -66,6 +66,10 @@ class WeightedDesign:
     predicted_bandwidth_fraction: float
     notes: tuple[str, ...] = ()
 
+    def stepped(self) -> SteppedDesign:
+        """This design with its impedances (for many designs at once, see stepped_many)."""
+        return stepped_many([self])[0]
+
 
 def stepped_many(designs: list[WeightedDesign]) -> list[SteppedDesign]:
     """The stepped design of every weighted design, in order."""
@@ -88,18 +92,6 @@ def stepped_many(designs: list[WeightedDesign]) -> list[SteppedDesign]:
 
 
 def binomial(
-    source_ohm: float,
-    load_ohm: float,
-    sections: int,
-    edge_angle_rad: float,
-    spec_reflection: float,
-    theory: Theory = SMALL_REFLECTION,
-) -> SteppedDesign:
-    """Binomial design (see weighted_binomial)."""
-    return stepped_many([weighted_binomial(source_ohm, load_ohm, sections, edge_angle_rad, spec_reflection, theory)])[0]
-
-
-def weighted_binomial(
     source_ohm: float,
     load_ohm: float,
     sections: int,
@@ -193,18 +185,6 @@ def _bounded_scale(scale: float) -> float:
 
 
 def chebyshev(
-    source_ohm: float,
-    load_ohm: float,
-    sections: int,
-    edge_angle_rad: float,
-    ripple: float | None = None,
-    theory: Theory = SMALL_REFLECTION,
-) -> SteppedDesign:
-    """Chebyshev design (see weighted_chebyshev)."""
-    return stepped_many([weighted_chebyshev(source_ohm, load_ohm, sections, edge_angle_rad, ripple, theory)])[0]
-
-
-def weighted_chebyshev(
     source_ohm: float,
     load_ohm: float,
     sections: int,

@@ -93,3 +93,21 @@ def check_yield(design: dict[str, Any], trials: int, settings: Settings) -> None
     if trials > settings.max_trials:
         raise UnmeetableRequestError("trials", f"at most {settings.max_trials} allowed on this server")
     check_budget(yield_seconds(design, trials), settings, "trials")
+
+
+def check_batch(items: list[Any], settings: Settings) -> float:
+    """Item count and budget of a batch; its estimated seconds (items that are not objects cost nothing)."""
+    if len(items) > settings.max_batch_items:
+        raise UnmeetableRequestError(
+            "requests", f"at most {settings.max_batch_items} items per batch; this one has {len(items)}"
+        )
+    seconds = sum(design_seconds(item) for item in items if isinstance(item, dict))
+    check_budget(seconds, settings, "requests")
+    return seconds
+
+
+def check_sweep(total: int, worst_item: dict[str, Any], settings: Settings) -> None:
+    """Grid size and budget of a sweep of `total` designs, none costlier than `worst_item`."""
+    if total > settings.max_sweep_designs:
+        raise UnmeetableRequestError("vary", f"the grid holds {total} designs; at most {settings.max_sweep_designs}")
+    check_budget(total * design_seconds(worst_item), settings, "vary")

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from service import design
 from service.design.multisection import MAX_SECTIONS, InfeasibleDesignError
@@ -13,26 +13,27 @@ from service.errors import UnmeetableRequestError
 from service.schemas.results import TransformerDesign
 from service.schemas.transformers import MatchRequest, QuarterWaveRequest, TransformerRequest
 
+Synthesized = design.SteppedDesign | design.WeightedDesign
+
 
 @dataclass(frozen=True)
 class Plan:
     """How to synthesize one stepped request at any section count.
 
-    Multisection plans also say how to `weigh` a count: their impedances can then be synthesized
-    together with other plans' (see jobs_for).
+    Multisection plans synthesize a WeightedDesign: its impedances can then be found together
+    with other plans' (see jobs_for).
     """
 
     method: str
     theory: str
     request: MatchRequest
     target: Target
-    synthesize: Callable[[int], design.SteppedDesign]
+    synthesize: Callable[[int], Synthesized]
     count: Callable[[], int]
     sections: int | None  # as requested; None means: by spec
-    weigh: Callable[[int], design.WeightedDesign] | None = None
 
     def job(self, sections: int, notes: tuple[str, ...] = ()) -> Job:
-        return Job(self.method, self.theory, self.request, self.target, self.synthesize(sections), notes)
+        return replace(jobs_for([self], [sections])[0], notes=notes)
 
     def theory_sections(self) -> int:
         """The requested count, or the theory's smallest count for the spec."""
@@ -46,18 +47,13 @@ class Plan:
 
 def jobs_for(plans: list[Plan], counts: list[int]) -> list[Job]:
     """The job of every plan at its count; multisection impedances synthesized in vectorized groups."""
-    weighable = [index for index, plan in enumerate(plans) if plan.weigh is not None]
-    weighted = design.stepped_many([plans[i].weigh(counts[i]) for i in weighable])
-    synthesized = dict(zip(weighable, weighted, strict=True))
+    synthesized = [plan.synthesize(count) for plan, count in zip(plans, counts, strict=True)]
+    weighted = [index for index, result in enumerate(synthesized) if isinstance(result, design.WeightedDesign)]
+    for index, stepped in zip(weighted, design.stepped_many([synthesized[i] for i in weighted]), strict=True):
+        synthesized[index] = stepped
     return [
-        Job(
-            plan.method,
-            plan.theory,
-            plan.request,
-            plan.target,
-            synthesized[index] if index in synthesized else plan.synthesize(count),
-        )
-        for index, (plan, count) in enumerate(zip(plans, counts, strict=True))
+        Job(plan.method, plan.theory, plan.request, plan.target, stepped)
+        for plan, stepped in zip(plans, synthesized, strict=True)
     ]
 
 
@@ -75,14 +71,8 @@ def plan_quarter_wave(request: QuarterWaveRequest) -> Plan:
 
 def plan_binomial(request: TransformerRequest) -> Plan:
     """Maximally flat design, by section count or by spec."""
-    spec = request.spec_reflection
     return _multisection_plan(
-        "binomial",
-        request,
-        lambda source, load, edge, theory, sections: design.weighted_binomial(
-            source, load, sections, edge, spec, theory
-        ),
-        lambda source, load, edge, theory: design.binomial_sections_for(source, load, edge, spec, theory),
+        "binomial", request, design.binomial, request.spec_reflection, design.binomial_sections_for
     )
 
 
@@ -93,40 +83,30 @@ def plan_chebyshev(request: TransformerRequest) -> Plan:
     Both: that N and ripple, the band following from them.
     """
     ripple = request.max_reflection if request.sections is not None else None
-    spec = request.spec_reflection
-    return _multisection_plan(
-        "chebyshev",
-        request,
-        lambda source, load, edge, theory, sections: design.weighted_chebyshev(
-            source, load, sections, edge, ripple, theory
-        ),
-        lambda source, load, edge, theory: design.chebyshev_sections_for(source, load, edge, spec, theory),
-    )
+    return _multisection_plan("chebyshev", request, design.chebyshev, ripple, design.chebyshev_sections_for)
 
 
 def _multisection_plan(
     method: str,
     request: TransformerRequest,
     weigh: Callable[..., design.WeightedDesign],
+    shape: float | None,
     count: Callable[..., int],
 ) -> Plan:
-    """A plan whose weighing and count take (source, target resistance, edge angle, theory[, N])."""
+    """A plan from a method's weighing, weigh(source, load, N, edge angle, shape, theory), and its
+    spec-driven count, count(source, load, edge angle, spec, theory); `shape` is the binomial's
+    spec or the Chebyshev ripple."""
     target = target_for(request)
     theory = design.THEORIES[request.theory]
-    inputs = (request.source_ohm, target.resistance_ohm, target.edge_angle_rad, theory)
-
-    def weighed(sections: int) -> design.WeightedDesign:
-        return weigh(*inputs, sections)
-
+    source, load, edge = request.source_ohm, target.resistance_ohm, target.edge_angle_rad
     return Plan(
         method,
         request.theory,
         request,
         target,
-        lambda sections: design.stepped_many([weighed(sections)])[0],
-        lambda: count(*inputs),
+        lambda sections: weigh(source, load, sections, edge, shape, theory),
+        lambda: count(source, load, edge, request.spec_reflection, theory),
         request.sections,
-        weighed,
     )
 
 
