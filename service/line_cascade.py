@@ -45,7 +45,12 @@ class LineCascade:
 
     def _lossless_abcd(self, frequency_hz: np.ndarray) -> network.LosslessAbcd:
         """The real ABCD parts at each frequency, for a medium without losses."""
-        return network.lossless_cascade(*self._impedances_and_angles(frequency_hz))
+        if self.medium.dispersive:
+            return network.lossless_cascade(*self._impedances_and_angles(frequency_hz))
+        impedance, _ = self._fixed_sections
+        return network.lossless_cascade(
+            impedance, np.asarray(frequency_hz, dtype=float)[..., None] * self._common_phase
+        )
 
     def electrical_lengths_rad(self, frequency_hz: np.ndarray) -> np.ndarray:
         """beta l of every section at each frequency: (..., F, S) for frequencies (..., F)."""
@@ -67,6 +72,13 @@ class LineCascade:
         params = self.medium.parameters(self.geometry, np.ones((1, 1)))
         return params.impedance_ohm, self._phase_per_hz(params.eps_eff)
 
+    @functools.cached_property
+    def _common_phase(self) -> np.ndarray:
+        """The phase per hertz for the cascade: one value per line (last axis of one) where every
+        section has the same electrical length, as in most stepped transformers."""
+        phase_per_hz = self._fixed_sections[1]
+        return phase_per_hz[..., :1] if (phase_per_hz == phase_per_hz[..., :1]).all() else phase_per_hz
+
     def _phase_per_hz(self, eps_eff: np.ndarray) -> np.ndarray:
         """beta l / f of each section: 2 pi sqrt(eps_eff) l / c."""
         return 2.0 * np.pi * np.sqrt(eps_eff) * self.lengths_m / C0
@@ -81,7 +93,7 @@ class LineCascade:
         The insertion loss is -10 log10 of the power reaching the load over the power available
         from the source.
         """
-        load = self.load.impedance_ohm(frequency_hz)
+        load = self.load.complex_ohm if isinstance(self.load, FixedLoad) else self.load.impedance_ohm(frequency_hz)
         if not self.medium.lossy:
             return network.lossless_reflection(self._lossless_abcd(frequency_hz), load, self.source_ohm), None
         abcd = self.abcd(frequency_hz)

@@ -37,11 +37,12 @@ class FixedLoad:
     frequency_dependent: bool = False
 
     def impedance_ohm(self, frequency_hz: np.ndarray) -> np.ndarray:
-        return self._impedance * np.ones(np.shape(frequency_hz))
+        return self.complex_ohm * np.ones(np.shape(frequency_hz))
 
     @functools.cached_property
-    def _impedance(self) -> np.ndarray:
-        """R + jX, formed once: every evaluation of a line needs it."""
+    def complex_ohm(self) -> np.ndarray:
+        """R + jX, formed once: every evaluation of a line needs it (it broadcasts against any
+        frequencies, so evaluations use it as it is)."""
         return np.asarray(self.resistance_ohm) + 1j * np.asarray(self.reactance_ohm)
 
     def frequency_range_hz(self) -> tuple[float, float] | None:

@@ -85,18 +85,20 @@ def lossless_cascade(impedances_ohm: np.ndarray, electrical_lengths_rad: np.ndar
     A and D real and B and C imaginary, so only the real numbers a, b/j, c/j, d are carried.
     The first section's matrix starts the product (every line has at least one section). Where
     every section has the same electrical length (the usual stepped transformer) the cosines and
-    sines are taken once: they are most of the cost.
+    sines are taken once: they are most of the cost. Lengths with a last axis of one mean that
+    length for every section.
     """
     impedances = np.asarray(impedances_ohm, dtype=float)
     lengths = np.asarray(electrical_lengths_rad, dtype=float)
-    shape = np.broadcast_shapes(impedances.shape, lengths.shape)
-    lengths = lengths if lengths.shape == shape else np.broadcast_to(lengths, shape)
-    commensurate = bool((lengths == lengths[..., :1]).all())  # then one cos and sin serve every section
+    commensurate = lengths.shape[-1] == 1 or bool((lengths == lengths[..., :1]).all())
     angles = lengths[..., :1] if commensurate else lengths
     cosines, sines = np.cos(angles), np.sin(angles)
-    z_sines, sines_over_z = sines * impedances, sines / impedances
-    a, b, c, d = cosines[..., 0], z_sines[..., 0], sines_over_z[..., 0], cosines[..., 0]
-    for index in range(1, lengths.shape[-1]):
+    z_sines, sines_over_z = sines * impedances, sines / impedances  # broadcast to (..., sections)
+    a, b, c = cosines[..., 0], z_sines[..., 0], sines_over_z[..., 0]
+    if a.shape != b.shape:  # a common length with more impedances (or designs) than lengths
+        a = np.broadcast_to(a, b.shape)
+    d = a
+    for index in range(1, z_sines.shape[-1]):
         cos_t = cosines[..., 0 if commensurate else index]
         z_sin = z_sines[..., index]
         sin_over_z = sines_over_z[..., index]

@@ -6,6 +6,7 @@ parameters), never the synthesis code, so it is an independent check of a design
 
 from __future__ import annotations
 
+import functools
 import math
 
 import numpy as np
@@ -48,9 +49,17 @@ def vswr(reflection: float) -> float:
 
 
 def _grids(starts: np.ndarray, stops: np.ndarray, count: int, squeeze: bool) -> np.ndarray:
-    grid = starts[:, None] + (stops - starts)[:, None] * np.linspace(0.0, 1.0, count)
+    grid = starts[:, None] + (stops - starts)[:, None] * _unit_grid(count)
     grid[:, -1] = stops
     return grid[0] if squeeze else grid
+
+
+@functools.lru_cache(maxsize=64)
+def _unit_grid(count: int) -> np.ndarray:
+    """count evenly spread fractions 0 .. 1 (read-only: shared by every check of that size)."""
+    fractions = np.linspace(0.0, 1.0, count)
+    fractions.flags.writeable = False
+    return fractions
 
 
 def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -> tuple[np.ndarray, np.ndarray]:

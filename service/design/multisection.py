@@ -82,7 +82,7 @@ def stepped_many(designs: list[WeightedDesign]) -> list[SteppedDesign]:
         impedances = members[0].theory.impedances(
             np.array([m.source_ohm for m in members]),
             np.array([m.load_ohm for m in members]),
-            np.stack([m.weights for m in members]),
+            np.array([m.weights for m in members]),
         )
         for index, member, row in zip(indices, members, impedances, strict=True):
             stepped[index] = SteppedDesign.quarter_waves(

@@ -20,9 +20,8 @@ class IdealLine:
     lossy: bool = False
 
     def parameters(self, geometry: np.ndarray, frequency_hz: np.ndarray) -> LineParameters:
-        shape = np.broadcast_shapes(np.shape(geometry), np.shape(frequency_hz))
-        eps = np.full(shape, 1.0 / self.velocity_factor**2)
-        return LineParameters(np.broadcast_to(geometry, shape), eps, None)
+        impedance = geometry + np.zeros(np.shape(frequency_hz))  # broadcast by the addition
+        return LineParameters(impedance, np.full(impedance.shape, 1.0 / self.velocity_factor**2), None)
 
     def geometry_for(self, impedance_ohm: np.ndarray, frequency_hz: float) -> np.ndarray:
         return np.asarray(impedance_ohm, dtype=float)
