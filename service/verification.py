@@ -19,6 +19,7 @@ MAX_CHECK_POINTS = 20001
 CHECK_POINTS_PER_LOBE = 48
 REFINE_POINTS = 17  # per peak, spanning the neighbours of its best coarse sample
 REFINE_OFFSETS = np.linspace(-1.0, 1.0, REFINE_POINTS)  # in steps of the coarse grid
+FINE_STEP = 2.0 / (REFINE_POINTS - 1)  # the fine grid's step, in steps of the coarse grid
 PEAKS_REFINED = 6
 RETURN_LOSS_CAP_DB = 300.0
 
@@ -74,13 +75,12 @@ def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -
     lead, count = grid.shape[:-1], grid.shape[-1]
     grid, values = grid.reshape(-1, count), values.reshape(-1, count)
     rows = np.arange(grid.shape[0])[:, None]
-    peaks = np.ones(values.shape, dtype=bool)
-    peaks[:, 1:-1] = (values[:, 1:-1] >= values[:, :-2]) & (values[:, 1:-1] >= values[:, 2:])
-    peaks[:, 0] = values[:, 0] >= values[:, 1]
-    peaks[:, -1] = values[:, -1] >= values[:, -2]
+    padded = np.full((grid.shape[0], count + 2), -np.inf)  # so that the band edges count as local maxima
+    padded[:, 1:-1] = values
+    peaks = (values >= padded[:, :-2]) & (values >= padded[:, 2:])
     candidates = min(PEAKS_REFINED, count)
-    top = (-np.where(peaks, values, -np.inf)).argpartition(candidates - 1, axis=-1)[:, :candidates]
-    step = (grid[:, -1:] - grid[:, :1]) / (count - 1)
+    top = np.where(peaks, -values, np.inf).argpartition(candidates - 1, axis=-1)[:, :candidates]
+    step = (grid[:, -1:] - grid[:, :1]) * (1.0 / (count - 1))
     peak_axis = np.arange(candidates)[None, :]
     low, high = grid[:, :1, None], grid[:, -1:, None]
     fine = _within(grid[rows, top][..., None] + step[..., None] * REFINE_OFFSETS, low, high)
@@ -89,9 +89,8 @@ def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -
     middle = _within(best, 1, REFINE_POINTS - 2)
     before, at, after = (fine_values[rows, peak_axis, middle + k] for k in (-1, 0, 1))
     curvature = before - 2.0 * at + after
-    shift = _within(0.5 * (before - after) / np.where(curvature < 0.0, curvature, -np.inf), -1.0, 1.0)
-    fine_step = step * 2.0 / (REFINE_POINTS - 1)
-    vertex = _within(fine[rows, peak_axis, middle] + shift * fine_step, low[..., 0], high[..., 0])
+    shift = _within((0.5 * (before - after)) / np.where(curvature < 0.0, curvature, -np.inf), -1.0, 1.0)
+    vertex = _within(fine[rows, peak_axis, middle] + shift * (step * FINE_STEP), low[..., 0], high[..., 0])
     vertex_values = line.reflection(vertex.reshape(*lead, -1)).reshape(vertex.shape)
     sampled, sampled_at = fine_values[rows, peak_axis, best], fine[rows, peak_axis, best]
     better = vertex_values > sampled

@@ -10,6 +10,8 @@ reflection, and the steps give the impedances.
 
 from __future__ import annotations
 
+import functools
+
 import numpy as np
 from numpy.typing import ArrayLike
 
@@ -25,12 +27,14 @@ def impedances_by_layer_peeling(source_ohm: ArrayLike, load_ohm: ArrayLike, weig
     weights = np.asarray(weights, dtype=float)
     rho = ((load - source) / (load + source))[..., None]
     matched = rho == 0.0
-    rho = np.where(matched, 0.5, rho)  # any mismatch will do; matched rows are replaced below
+    any_matched = matched.any()
+    if any_matched:
+        rho = np.where(matched, 0.5, rho)  # any mismatch will do; matched rows are replaced below
     scale = np.abs(rho) / np.sqrt(1.0 - rho * rho) / weights.sum(axis=-1, keepdims=True)
     numerator = np.copysign(scale, rho) * weights
-    steps = _peel_junctions(numerator, _spectral_factor(numerator))
-    ratios = ((1.0 + steps[..., :-1]) / (1.0 - steps[..., :-1])).cumprod(axis=-1)
-    return np.where(matched, 1.0, ratios) * source[..., None]
+    steps = _peel_junctions(numerator, _spectral_factor(numerator))[..., :-1]
+    ratios = ((1.0 + steps) / (1.0 - steps)).cumprod(axis=-1)
+    return (np.where(matched, 1.0, ratios) if any_matched else ratios) * source[..., None]
 
 
 def _spectral_factor(numerator: np.ndarray) -> np.ndarray:
@@ -41,13 +45,16 @@ def _spectral_factor(numerator: np.ndarray) -> np.ndarray:
     are A's zeros.
     """
     sections = numerator.shape[-1] - 1
-    product = np.zeros((*numerator.shape[:-1], 2 * sections + 1))
-    for index in range(sections + 1):
-        product[..., index : index + sections + 1] += numerator[..., index : index + 1] * numerator[..., ::-1]
+    lead = numerator.shape[:-1]
+    # B(z) B_rev(z) by a skewed sum: row i of the outer product, shifted right by i, summed over i
+    skewed = np.zeros((*lead, sections + 1, 2 * sections + 2))
+    skewed[..., : sections + 1] = numerator[..., :, None] * numerator[..., None, ::-1]
+    product = skewed.reshape(*lead, -1)[..., : (sections + 1) * (2 * sections + 1)]
+    product = product.reshape(*lead, sections + 1, 2 * sections + 1).sum(axis=-2)
     product[..., sections] += 1.0
-    roots = _polynomial_roots(product)
-    order = np.abs(roots).argsort(axis=-1)
-    outside = np.take_along_axis(roots, order[..., sections:], axis=-1)
+    roots = _polynomial_roots(product).reshape(-1, 2 * sections)
+    order = np.abs(roots).argsort(axis=-1)[:, sections:]
+    outside = roots[np.arange(roots.shape[0])[:, None], order].reshape(*lead, sections)
     factor = np.zeros((*numerator.shape[:-1], sections + 1), dtype=complex)  # descending powers
     factor[..., 0] = 1.0
     for index in range(sections):  # multiply in (z - root), one root at a time
@@ -62,10 +69,19 @@ def _polynomial_roots(coefficients: np.ndarray) -> np.ndarray:
     """Zeros of each row's polynomial (..., M+1), coefficients in either order (the product is palindromic),
     as the eigenvalues of its companion matrix; the leading coefficient must not vanish."""
     degree = coefficients.shape[-1] - 1
-    companion = np.zeros((*coefficients.shape[:-1], degree, degree))
+    companion = np.empty((*coefficients.shape[:-1], degree, degree))
+    companion[...] = _shift_matrix(degree)
     companion[..., 0, :] = -coefficients[..., 1:] / coefficients[..., :1]
-    companion[..., np.arange(1, degree), np.arange(degree - 1)] = 1.0
     return np.linalg.eigvals(companion)
+
+
+@functools.lru_cache(maxsize=128)
+def _shift_matrix(degree: int) -> np.ndarray:
+    """Ones below the diagonal: the part of every companion matrix of this degree that does not
+    depend on the coefficients (read-only, shared)."""
+    shift = np.eye(degree, k=-1)
+    shift.flags.writeable = False
+    return shift
 
 
 def _peel_junctions(numerator: np.ndarray, denominator: np.ndarray) -> np.ndarray:
