@@ -89,3 +89,10 @@ class TabulatedLoad:
 
     def frequency_range_hz(self) -> tuple[float, float] | None:
         return float(self.frequency_hz[0]), float(self.frequency_hz[-1])
+
+
+def impedance_at(load: LoadModel, frequency_hz: float) -> complex:
+    """The load's impedance at one frequency (a fixed load's without any array work)."""
+    if isinstance(load, FixedLoad):
+        return complex(load.resistance_ohm, load.reactance_ohm)
+    return complex(load.impedance_ohm(np.array([frequency_hz]))[0])

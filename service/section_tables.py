@@ -8,7 +8,7 @@ import numpy as np
 
 from service import network
 from service.line_cascade import C0, LineCascade, stacked_groups
-from service.loads import LoadModel
+from service.loads import LoadModel, impedance_at
 from service.schemas.results import JunctionResult, SectionResult
 
 
@@ -57,5 +57,5 @@ def _resistive_load_ohm(load: LoadModel) -> float | None:
     """The load's resistance if it is resistive and the same at every frequency, else None."""
     if load.frequency_dependent:
         return None
-    impedance = complex(load.impedance_ohm(np.zeros(1))[0])
+    impedance = impedance_at(load, 0.0)
     return impedance.real if impedance.imag == 0.0 else None

@@ -6,6 +6,7 @@ import numpy as np
 
 from service import network
 from service.line_cascade import LineCascade
+from service.loads import impedance_at
 from service.schemas.results import AnalysisResult
 from service.schemas.transformers import MatchRequest
 
@@ -26,8 +27,7 @@ def two_port(request: MatchRequest, design: AnalysisResult) -> tuple[np.ndarray,
     frequency-dependent load the file describes the transformer alone, not its match to the load.
     """
     frequencies = np.asarray(design.response.frequency_hz)
-    load = request.load.model().impedance_ohm(np.array([request.band.center_hz]))[0]
-    r1, r2 = request.source_ohm, float(np.real(load))
+    r1, r2 = request.source_ohm, impedance_at(request.load.model(), request.band.center_hz).real
     abcd = design_line(request, design).abcd(frequencies)
     s11, s21 = network.s_parameters(abcd, r1, r2)
     denominator = abcd.a * r2 + abcd.b + abcd.c * r1 * r2 + abcd.d * r1

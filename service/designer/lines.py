@@ -11,7 +11,7 @@ from service.design.bode_fano import bode_fano_min_reflection
 from service.design.reactive import RotatingSection, rotating_section
 from service.errors import UnmeetableRequestError
 from service.line_cascade import LineCascade
-from service.loads import CircuitLoad, LoadModel
+from service.loads import CircuitLoad, LoadModel, impedance_at
 from service.media import IdealLine, RealizationError
 from service.network import SPEED_OF_LIGHT_M_PER_S
 from service.schemas.results import BodeFanoFigures, ResponseCurve, VerifiedFigures
@@ -48,7 +48,7 @@ def target_for(request: MatchRequest) -> Target:
         raise UnmeetableRequestError(
             "band", f"the band reaches beyond the load data, which cover {covered[0]:g} to {covered[1]:g} Hz"
         )
-    center = complex(load.impedance_ohm(np.array([band.center_hz]))[0])
+    center = impedance_at(load, band.center_hz)
     if not center.real > 0.0:
         raise UnmeetableRequestError("load", "the load has no positive resistance at the band centre")
     edge = band_edge_angle_rad(band.start_hz, band.stop_hz)
@@ -83,7 +83,7 @@ def realize(
         geometry = medium.geometry_for(impedances_ohm, request.band.center_hz)
     except RealizationError as exc:
         raise UnmeetableRequestError("medium", str(exc)) from exc
-    frequencies = np.broadcast_to(np.asarray(frequency_hz, dtype=float), np.shape(geometry))
+    frequencies = np.asarray(frequency_hz, dtype=float) * np.ones(np.shape(geometry))
     eps = medium.parameters(geometry, frequencies).eps_eff  # each section at its own frequency
     lengths = np.asarray(angles_rad) * SPEED_OF_LIGHT_M_PER_S / (2.0 * np.pi * frequencies * np.sqrt(eps))
     return LineCascade(request.source_ohm, load, medium, geometry, lengths)
@@ -123,7 +123,7 @@ def checked_blocks(
     return {
         "center_hz": band.center_hz,
         "sections": table.sections,
-        "total_length_m": float(np.sum(line.lengths_m)),
+        "total_length_m": float(line.lengths_m.sum()),
         "junctions": table.junctions,
         "verified": verified,
         "response": curve,
