@@ -93,15 +93,21 @@ def lossless_cascade(impedances_ohm: np.ndarray, electrical_lengths_rad: np.ndar
     commensurate = lengths.shape[-1] == 1 or bool((lengths == lengths[..., :1]).all())
     angles = lengths[..., :1] if commensurate else lengths
     cosines, sines = np.cos(angles), np.sin(angles)
-    z_sines, sines_over_z = sines * impedances, sines / impedances  # broadcast to (..., sections)
-    a, b, c = cosines[..., 0], z_sines[..., 0], sines_over_z[..., 0]
+    sections = max(impedances.shape[-1], lengths.shape[-1])
+
+    def section(index: int) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """cos, Z sin and sin / Z of one section: per-section slices, so that every product runs
+        over whole frequency rows rather than broadcasting over the short section axis."""
+        at = 0 if commensurate else index
+        z = impedances[..., index if impedances.shape[-1] > 1 else 0]
+        return cosines[..., at], sines[..., at] * z, sines[..., at] / z
+
+    a, b, c = section(0)
     if a.shape != b.shape:  # a common length with more impedances (or designs) than lengths
         a = np.broadcast_to(a, b.shape)
     d = a
-    for index in range(1, z_sines.shape[-1]):
-        cos_t = cosines[..., 0 if commensurate else index]
-        z_sin = z_sines[..., index]
-        sin_over_z = sines_over_z[..., index]
+    for index in range(1, sections):
+        cos_t, z_sin, sin_over_z = section(index)
         a, b, c, d = (
             a * cos_t - b * sin_over_z,
             a * z_sin + b * cos_t,
@@ -122,7 +128,9 @@ def lossless_reflection(network: LosslessAbcd, load_ohm: np.ndarray, reference_o
     r, x = load.real, load.imag
     p, q = network.a * r, network.a * x + network.b
     u, v = reference_ohm * (network.d - network.c * x), reference_ohm * (network.c * r)
-    return np.hypot(p - u, q - v) / np.hypot(p + u, q + v)
+    re_minus, im_minus, re_plus, im_plus = p - u, q - v, p + u, q + v
+    # one square root of the ratio: np.hypot twice costs several times more on large stacks
+    return np.sqrt((re_minus * re_minus + im_minus * im_minus) / (re_plus * re_plus + im_plus * im_plus))
 
 
 def transducer_gain(network: Abcd, source_ohm: float, load_ohm: np.ndarray) -> np.ndarray:
