@@ -20,13 +20,14 @@ class SectionTable:
     junctions: list[JunctionResult]
 
 
-def section_tables(lines: list[LineCascade], frequencies_hz: np.ndarray) -> list[SectionTable]:
+def section_tables(lines: list[LineCascade], frequencies_hz: np.ndarray, junctions: bool = True) -> list[SectionTable]:
     """Every line's section table at its frequency (the band centre), a stack of lines at a time.
 
     A section lists its impedance, electrical length, permittivity and geometry there; a junction
     its reflection and transmission. The step into the load is listed only for a load that is
     resistive and the same at every frequency; for other loads its reflection is complex or
-    changes with frequency.
+    changes with frequency. Without `junctions` the junction lists are left empty (batch summaries
+    do not show them).
     """
     tables: list[SectionTable | None] = [None] * len(lines)
     for indices in stacked_groups(lines):
@@ -48,8 +49,8 @@ def section_tables(lines: list[LineCascade], frequencies_hz: np.ndarray) -> list
         rows = zip(*(column.tolist() for column in columns), strict=True)  # each (designs, sections)
         for index, row, steps, load in zip(indices, rows, reflections, loads, strict=True):  # load > 0 or None
             sections = [SectionResult(**dict(zip(names, values, strict=True))) for values in zip(*row, strict=True)]
-            junctions = [JunctionResult(reflection=r, transmission=1.0 + r) for r in (steps if load else steps[:-1])]
-            tables[index] = SectionTable(sections, junctions)
+            listed = (steps if load else steps[:-1]) if junctions else []
+            tables[index] = SectionTable(sections, [JunctionResult(reflection=r, transmission=1.0 + r) for r in listed])
     return tables
 
 

@@ -118,27 +118,40 @@ def aligned_count(minimum: int, points: int) -> int:
 
 
 def check_many(
-    lines: list[LineCascade], starts: np.ndarray, stops: np.ndarray, specs: np.ndarray, points: np.ndarray
-) -> list[tuple[VerifiedFigures, ResponseCurve]]:
+    lines: list[LineCascade],
+    starts: np.ndarray,
+    stops: np.ndarray,
+    specs: np.ndarray,
+    points: np.ndarray,
+    curves: bool = True,
+) -> list[tuple[VerifiedFigures, ResponseCurve | None]]:
     """The verified block and the response curve of every line, stacked where the lines allow.
 
     One cascade evaluation serves both: the check grid is chosen to contain the curve's
-    frequencies, so the curve is read off it.
+    frequencies, so the curve is read off it. Without `curves` the curve is None (batch summaries
+    leave it out); the check itself is the same.
     """
-    results: list[tuple[VerifiedFigures, ResponseCurve] | None] = [None] * len(lines)
+    results: list[tuple[VerifiedFigures, ResponseCurve | None] | None] = [None] * len(lines)
     for group in stacked_groups(lines):
         by_points: dict[int, list[int]] = {}
         for index in group:
             by_points.setdefault(int(points[index]), []).append(index)
         for count, indices in by_points.items():
-            for index, result in zip(indices, _check_group(lines, indices, starts, stops, specs, count), strict=True):
+            checked = _check_group(lines, indices, starts, stops, specs, count, curves)
+            for index, result in zip(indices, checked, strict=True):
                 results[index] = result
     return results
 
 
 def _check_group(
-    lines: list[LineCascade], indices: list[int], starts: np.ndarray, stops: np.ndarray, specs: np.ndarray, points: int
-) -> list[tuple[VerifiedFigures, ResponseCurve]]:
+    lines: list[LineCascade],
+    indices: list[int],
+    starts: np.ndarray,
+    stops: np.ndarray,
+    specs: np.ndarray,
+    points: int,
+    curves: bool,
+) -> list[tuple[VerifiedFigures, ResponseCurve | None]]:
     line = stacked(lines, indices)
     single = len(indices) == 1
     count = aligned_count(check_grid_points(line, stops[indices[0]] if single else stops[indices]), points)
@@ -147,18 +160,11 @@ def _check_group(
     worst, where = (np.atleast_1d(a) for a in worst_reflections(line, grid, values))
     losses = None if losses is None else np.atleast_2d(losses)
     every = (count - 1) // (points - 1)
-    curve_values = np.atleast_2d(values)[:, ::every]
-    frequencies, magnitudes, return_losses = (
-        rows.tolist() for rows in (np.atleast_2d(grid)[:, ::every], curve_values, return_loss_db(curve_values))
-    )
-    curve_losses = [None] * len(indices) if losses is None else losses[:, ::every].tolist()
     max_losses = [None] * len(indices) if losses is None else np.max(losses, axis=-1).tolist()
     worst_rows, where_rows, spec_rows = worst.tolist(), where.tolist(), specs[indices].tolist()
     return_loss_rows = return_loss_db(worst).tolist()
-    results = []
-    for position in range(len(indices)):
-        worst_value, spec = worst_rows[position], spec_rows[position]
-        figures = VerifiedFigures(
+    figures = [
+        VerifiedFigures(
             max_reflection=worst_value,
             max_vswr=vswr(worst_value),
             min_return_loss_db=return_loss_rows[position],
@@ -169,14 +175,27 @@ def _check_group(
             includes_losses=line.medium.lossy,
             max_insertion_loss_db=max_losses[position],
         )
-        curve = ResponseCurve(
-            frequency_hz=frequencies[position],
-            reflection_magnitude=magnitudes[position],
-            return_loss_db=return_losses[position],
-            insertion_loss_db=curve_losses[position],
+        for position, (worst_value, spec) in enumerate(zip(worst_rows, spec_rows, strict=True))
+    ]
+    if not curves:
+        return [(block, None) for block in figures]
+    curve_values = np.atleast_2d(values)[:, ::every]
+    frequencies, magnitudes, return_losses = (
+        rows.tolist() for rows in (np.atleast_2d(grid)[:, ::every], curve_values, return_loss_db(curve_values))
+    )
+    curve_losses = [None] * len(indices) if losses is None else losses[:, ::every].tolist()
+    return [
+        (
+            block,
+            ResponseCurve(
+                frequency_hz=frequencies[position],
+                reflection_magnitude=magnitudes[position],
+                return_loss_db=return_losses[position],
+                insertion_loss_db=curve_losses[position],
+            ),
         )
-        results.append((figures, curve))
-    return results
+        for position, block in enumerate(figures)
+    ]
 
 
 def check(

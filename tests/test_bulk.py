@@ -79,6 +79,16 @@ def test_summaries_leave_out_curves_by_default(client):
     assert result["design"]["response"] is None
 
 
+def test_summaries_without_curves_equal_those_with_them_but_for_the_curve(client):
+    # Without curves the batch takes its own path (no curve or junction table is built): the
+    # summaries must not differ in anything else, for every kind of item above.
+    with_curves = client.post("/v1/batch", json={"requests": ITEMS, "include_curves": True}).json()["results"]
+    without = client.post("/v1/batch", json={"requests": ITEMS}).json()["results"]
+    for full, brief in zip(with_curves, without, strict=True):
+        assert full["design"]["response"] is not None and brief["design"]["response"] is None
+        assert {**full["design"], "response": None} == brief["design"]
+
+
 def test_a_bad_item_does_not_sink_the_batch(client):
     bad = dict(ITEMS[0], band={"start_hz": 3e9, "stop_hz": 1e9})
     unmeetable = dict(ITEMS[2], band={"start_hz": 1e6, "stop_hz": 3.999e9}, max_reflection=1e-4)

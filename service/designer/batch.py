@@ -8,16 +8,21 @@ from service.designer.items import Item, design_item
 from service.designer.lines import DesignOptions
 from service.designer.stepped import Plan, designed, jobs_for, plan_binomial, plan_chebyshev, plan_quarter_wave
 from service.errors import UnmeetableRequestError
+from service.schemas.bulk import DesignSummary
 from service.schemas.items import BinomialItem, ChebyshevItem, QuarterWaveItem
 from service.schemas.results import TransformerDesign
 
 PLANNERS = {QuarterWaveItem: plan_quarter_wave, BinomialItem: plan_binomial, ChebyshevItem: plan_chebyshev}
 
-Outcome = TransformerDesign | UnmeetableRequestError
+Outcome = TransformerDesign | DesignSummary | UnmeetableRequestError
 
 
-def design_batch(items: list[Item], options: DesignOptions | None = None) -> list[Outcome]:
-    """The design (or the reason it cannot be made) of every item, in order."""
+def design_batch(items: list[Item], options: DesignOptions | None = None, summaries: bool = False) -> list[Outcome]:
+    """The design (or the reason it cannot be made) of every item, in order.
+
+    With `summaries`, stepped designs checked in the first pass come back as curve-less summaries
+    (see finish_many); designs that needed another pass, and tapers, come back whole.
+    """
     outcomes: list[Outcome | None] = [None] * len(items)
     positions: list[int] = []
     plans: list[Plan] = []
@@ -34,6 +39,8 @@ def design_batch(items: list[Item], options: DesignOptions | None = None) -> lis
             positions.append(index)
         except UnmeetableRequestError as exc:
             outcomes[index] = exc
-    for index, plan, first in zip(positions, plans, finish_many(jobs_for(plans, counts), options), strict=True):
+    for index, plan, first in zip(
+        positions, plans, finish_many(jobs_for(plans, counts), options, summaries), strict=True
+    ):
         outcomes[index] = designed(plan, options, first)
     return outcomes

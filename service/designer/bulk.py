@@ -25,8 +25,10 @@ ITEM_ADAPTER: TypeAdapter = TypeAdapter(DesignItem)
 CHUNK_ITEMS = 256
 
 
-def summary(design: TransformerDesign, include_curves: bool) -> DesignSummary:
-    """The table-sized view of a design."""
+def summary(design: TransformerDesign | DesignSummary, include_curves: bool) -> DesignSummary:
+    """The table-sized view of a design (a summary already is one)."""
+    if isinstance(design, DesignSummary):
+        return design
     fields = DesignSummary.model_fields.keys() - {"response"}
     return DesignSummary(
         **{name: getattr(design, name) for name in fields}, response=design.response if include_curves else None
@@ -50,7 +52,7 @@ def design_items(
             results[position] = ItemResult(index=offset + position, status=422, error=error)
         except UnmeetableRequestError as exc:
             results[position] = _unmeetable(offset + position, exc)
-    for position, outcome in zip(positions, design_batch(valid, options), strict=True):
+    for position, outcome in zip(positions, design_batch(valid, options, summaries=not include_curves), strict=True):
         if isinstance(outcome, UnmeetableRequestError):
             results[position] = _unmeetable(offset + position, outcome)
         else:

@@ -21,6 +21,7 @@ from service.designer.reporting import (
 )
 from service.line_cascade import LineCascade
 from service.refinement import refine_minimax
+from service.schemas.bulk import DesignSummary
 from service.schemas.results import (
     PredictedFigures,
     RefinementFigures,
@@ -33,6 +34,7 @@ from service.section_tables import SectionTable, section_tables
 from service.verification import check, check_many
 
 THEORY_METHODS = ("binomial", "chebyshev")  # the methods a request may switch to the exact theory
+SUMMARY_BLOCKS = ("center_hz", "total_length_m", "sections", "verified", "medium")  # what a summary shows
 
 
 @dataclass(frozen=True)
@@ -60,8 +62,14 @@ def finish(
     return finish_many([Job(method, theory, request, target, synthesized, tuple(notes or ()))], options)[0]
 
 
-def finish_many(jobs: list[Job], options: DesignOptions | None = None) -> list[TransformerDesign]:
-    """Verified responses for many designs (refined first for frequency-dependent loads)."""
+def finish_many(
+    jobs: list[Job], options: DesignOptions | None = None, summaries: bool = False
+) -> list[TransformerDesign | DesignSummary]:
+    """Verified responses for many designs (refined first for frequency-dependent loads).
+
+    With `summaries`, each result is the table-sized DesignSummary without its curve, and the
+    parts only a full design shows (curve, junction table) are never built.
+    """
     options = options or DesignOptions()
     lines = [
         line_for(j.request, j.target, j.synthesized.impedances_ohm, j.synthesized.electrical_length_rad) for j in jobs
@@ -71,15 +79,16 @@ def finish_many(jobs: list[Job], options: DesignOptions | None = None) -> list[T
     specs = np.array([j.request.spec_reflection for j in jobs])
     points = np.array([j.request.points for j in jobs])
     checked = []
-    for job, line, (figures, curve) in zip(jobs, lines, check_many(lines, starts, stops, specs, points), strict=True):
+    verified = check_many(lines, starts, stops, specs, points, curves=not summaries)
+    for job, line, (figures, curve) in zip(jobs, lines, verified, strict=True):
         refinement = None
         if job.target.load.frequency_dependent:
             line, refinement, curve = _refine(line, job.request, figures)
             figures = refinement.after
         checked.append((job, line, figures, refinement, curve))
     centers = np.array([j.request.band.center_hz for j in jobs])
-    tables = section_tables([line for _, line, *_ in checked], centers)
-    return [_assemble(*parts, table, options) for parts, table in zip(checked, tables, strict=True)]
+    tables = section_tables([line for _, line, *_ in checked], centers, junctions=not summaries)
+    return [_assemble(*parts, table, options, summaries) for parts, table in zip(checked, tables, strict=True)]
 
 
 def _refine(
@@ -96,10 +105,11 @@ def _assemble(
     line: LineCascade,
     verified: VerifiedFigures,
     refinement: RefinementFigures | None,
-    curve: ResponseCurve,
+    curve: ResponseCurve | None,
     table: SectionTable,
     options: DesignOptions,
-) -> TransformerDesign:
+    summary: bool,
+) -> TransformerDesign | DesignSummary:
     request, target, synthesized, theory = job.request, job.target, job.synthesized, job.theory
     band, spec = request.band, request.spec_reflection
     predicted = PredictedFigures(
@@ -124,6 +134,11 @@ def _assemble(
     warnings += bode_fano_warnings(blocks["bode_fano"], spec)
     if target.rotation is not None:
         warnings.append(_rotation_note(request, target))
+    if summary:
+        shown = {name: blocks[name] for name in SUMMARY_BLOCKS}
+        return DesignSummary(
+            method=job.method, theory=theory, profile=None, predicted=predicted, warnings=warnings, **shown
+        )
     return TransformerDesign(
         method=job.method, theory=theory, predicted=predicted, refinement=refinement, **blocks, warnings=warnings
     )

@@ -113,7 +113,7 @@ def checked_blocks(
     line: LineCascade,
     request: MatchRequest,
     verified: VerifiedFigures,
-    curve: ResponseCurve,
+    curve: ResponseCurve | None,
     table: SectionTable,
     options: DesignOptions,
 ) -> dict[str, object]:

@@ -10,6 +10,7 @@ from service.design.multisection import MAX_SECTIONS, InfeasibleDesignError
 from service.designer.finish import Job, finish_many
 from service.designer.lines import DesignOptions, Target, target_for
 from service.errors import UnmeetableRequestError
+from service.schemas.bulk import DesignSummary
 from service.schemas.results import TransformerDesign
 from service.schemas.transformers import MatchRequest, QuarterWaveRequest, TransformerRequest
 
@@ -125,10 +126,12 @@ def chebyshev(request: TransformerRequest, options: DesignOptions | None = None)
     return designed(plan_chebyshev(request), options)
 
 
-def designed(plan: Plan, options: DesignOptions | None, first: TransformerDesign | None = None) -> TransformerDesign:
+def designed(
+    plan: Plan, options: DesignOptions | None, first: TransformerDesign | DesignSummary | None = None
+) -> TransformerDesign | DesignSummary:
     """The design at the requested N, or the smallest N that the exact cascade says meets the spec.
 
-    The theory's N is tried first (or `first`, its already-checked design); where the exact
+    The theory's N is tried first (or `first`, its already-checked design or summary); where the exact
     cascade misses the spec, N grows until it meets it (or the section limit is reached), and a
     warning says so. For loads that change with frequency the theory's N is kept and refined.
     """
