@@ -125,8 +125,8 @@ def stack(lines: list[LineCascade]) -> LineCascade:
             np.array([[line.load.reactance_ohm] for line in lines]),
         ),
         lines[0].medium,
-        np.stack([line.geometry for line in lines])[:, None, :],
-        np.stack([line.lengths_m for line in lines])[:, None, :],
+        np.array([[line.geometry] for line in lines]),
+        np.array([[line.lengths_m] for line in lines]),
     )
 
 
