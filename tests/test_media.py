@@ -166,3 +166,14 @@ def test_velocity_factor_and_medium_together_are_refused(client, base_request):
     body = base_request | {"velocity_factor": 0.7, "medium": MICROSTRIP}
     response = client.post("/v1/transformers/binomial", json=body)
     assert response.status_code == 422
+
+
+def test_a_substrate_too_thick_for_the_frequency_is_refused_in_plain_words(client, base_request):
+    # 0.1 m of eps_r 128 at 1.5 GHz is far outside the dispersion model's f h range: the answer
+    # must be a 422 on the medium that says why, not a realizable range of "nan to nan ohm".
+    thick = {"kind": "microstrip", "eps_r": 128, "height_m": 0.1, "thickness_m": 0.0}
+    response = client.post("/v1/transformers/chebyshev", json=base_request | {"sections": 2, "medium": thick})
+    assert response.status_code == 422
+    problem = response.json()["problems"][0]
+    assert problem["field"] == "medium"
+    assert "nan" not in problem["message"] and "too large for that frequency" in problem["message"]

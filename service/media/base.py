@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 from typing import Protocol
 
@@ -49,6 +50,11 @@ def invert_monotone(impedance_of: callable, target_ohm: float, low: float, high:
     impedance_of must be monotone in x; outside its range the medium cannot realize the target.
     """
     z_low, z_high = impedance_of(low), impedance_of(high)
+    if not (math.isfinite(z_low) and math.isfinite(z_high)):  # a model evaluated far outside its range
+        raise RealizationError(
+            f"the {what} line model gives no finite impedance over the dimensions it searches at the band "
+            f"centre: the {what}'s cross-section is electrically too large for that frequency"
+        )
     lo_z, hi_z = min(z_low, z_high), max(z_low, z_high)
     if not lo_z <= target_ohm <= hi_z:
         raise RealizationError(
