@@ -104,6 +104,17 @@ def test_a_bad_item_does_not_sink_the_batch(client):
     assert all(r["error"]["status"] == 422 and r["error"]["problems"] for r in results[1:5])
 
 
+def test_an_item_its_medium_cannot_realize_does_not_sink_the_batch(client):
+    # The medium refuses only once the impedances are known, inside the stacked check of all
+    # items: the refusal must stay with its item, in the shape of a single request's 422.
+    thick = {"kind": "microstrip", "eps_r": 128, "height_m": 0.1, "thickness_m": 0.0}
+    unrealizable = dict(ITEMS[0], medium=thick)
+    results = client.post("/v1/batch", json={"requests": [ITEMS[0], unrealizable, ITEMS[1]]}).json()["results"]
+    assert [r["status"] for r in results] == [200, 422, 200]
+    alone = client.post("/v1/transformers/chebyshev", json={k: v for k, v in unrealizable.items() if k != "method"})
+    assert alone.status_code == 422 and results[1]["error"] == alone.json()
+
+
 def test_batch_item_limit_is_a_setting():
     limited = TestClient(create_app(Settings(max_batch_items=3)))
     response = limited.post("/v1/batch", json={"requests": ITEMS[:4]})

@@ -24,23 +24,36 @@ def design_batch(items: list[Item], options: DesignOptions | None = None, summar
     (see finish_many); designs that needed another pass, and tapers, come back whole.
     """
     outcomes: list[Outcome | None] = [None] * len(items)
-    positions: list[int] = []
-    plans: list[Plan] = []
-    counts: list[int] = []
+    planned: list[tuple[int, Plan]] = []
     for index, item in enumerate(items):
+        planner = PLANNERS.get(type(item))
         try:
-            planner = PLANNERS.get(type(item))
             if planner is None:
                 outcomes[index] = design_item(item, options)
-                continue
-            plan = planner(item)
-            counts.append(plan.theory_sections())
-            plans.append(plan)
-            positions.append(index)
+            else:
+                planned.append((index, planner(item)))
         except UnmeetableRequestError as exc:
             outcomes[index] = exc
-    for index, plan, first in zip(
-        positions, plans, finish_many(jobs_for(plans, counts), options, summaries), strict=True
-    ):
-        outcomes[index] = designed(plan, options, first)
+    for (index, _), outcome in zip(planned, design_plans([p for _, p in planned], options, summaries), strict=True):
+        outcomes[index] = outcome
+    return outcomes
+
+
+def design_plans(plans: list[Plan], options: DesignOptions | None = None, summaries: bool = False) -> list[Outcome]:
+    """The design of every plan, their first exact checks run together; errors stay with their plan."""
+    outcomes: list[Outcome | None] = [None] * len(plans)
+    ready: list[int] = []
+    counts: list[int] = []
+    for index, plan in enumerate(plans):
+        try:
+            counts.append(plan.theory_sections())
+            ready.append(index)
+        except UnmeetableRequestError as exc:
+            outcomes[index] = exc
+    checked = finish_many(jobs_for([plans[i] for i in ready], counts), options, summaries)
+    for index, first in zip(ready, checked, strict=True):
+        try:
+            outcomes[index] = first if isinstance(first, Exception) else designed(plans[index], options, first)
+        except UnmeetableRequestError as exc:  # a later pass with more sections that cannot be realized
+            outcomes[index] = exc
     return outcomes

@@ -19,6 +19,7 @@ from service.designer.reporting import (
     departure_warnings,
     spec_warnings,
 )
+from service.errors import UnmeetableRequestError
 from service.line_cascade import LineCascade
 from service.refinement import refine_minimax
 from service.schemas.bulk import DesignSummary
@@ -49,6 +50,9 @@ class Job:
     notes: tuple[str, ...] = ()
 
 
+Finished = TransformerDesign | DesignSummary | UnmeetableRequestError
+
+
 def finish(
     method: str,
     theory: str,
@@ -59,21 +63,43 @@ def finish(
     options: DesignOptions | None = None,
 ) -> TransformerDesign:
     """The verified response for one synthesized design."""
-    return finish_many([Job(method, theory, request, target, synthesized, tuple(notes or ()))], options)[0]
+    return finish_one(Job(method, theory, request, target, synthesized, tuple(notes or ())), options)
 
 
-def finish_many(
-    jobs: list[Job], options: DesignOptions | None = None, summaries: bool = False
-) -> list[TransformerDesign | DesignSummary]:
+def finish_one(job: Job, options: DesignOptions | None = None) -> TransformerDesign:
+    """The verified response for one job; raises UnmeetableRequestError where it cannot be realized."""
+    result = finish_many([job], options)[0]
+    if isinstance(result, UnmeetableRequestError):
+        raise result
+    return result
+
+
+def finish_many(jobs: list[Job], options: DesignOptions | None = None, summaries: bool = False) -> list[Finished]:
     """Verified responses for many designs (refined first for frequency-dependent loads).
 
     With `summaries`, each result is the table-sized DesignSummary without its curve, and the
-    parts only a full design shows (curve, junction table) are never built.
+    parts only a full design shows (curve, junction table) are never built. A job whose sections
+    its medium cannot realize gets its UnmeetableRequestError in its place: it never sinks the rest.
     """
-    options = options or DesignOptions()
-    lines = [
-        line_for(j.request, j.target, j.synthesized.impedances_ohm, j.synthesized.electrical_length_rad) for j in jobs
-    ]
+    lines = [_line_or_error(job) for job in jobs]
+    kept = [index for index, line in enumerate(lines) if isinstance(line, LineCascade)]
+    done = _finish_lines([jobs[i] for i in kept], [lines[i] for i in kept], options or DesignOptions(), summaries)
+    results: list[Finished] = list(lines)
+    for index, result in zip(kept, done, strict=True):
+        results[index] = result
+    return results
+
+
+def _line_or_error(job: Job) -> LineCascade | UnmeetableRequestError:
+    try:
+        return line_for(job.request, job.target, job.synthesized.impedances_ohm, job.synthesized.electrical_length_rad)
+    except UnmeetableRequestError as exc:
+        return exc
+
+
+def _finish_lines(
+    jobs: list[Job], lines: list[LineCascade], options: DesignOptions, summaries: bool
+) -> list[TransformerDesign | DesignSummary]:
     starts = np.array([j.request.band.start_hz for j in jobs])
     stops = np.array([j.request.band.stop_hz for j in jobs])
     specs = np.array([j.request.spec_reflection for j in jobs])

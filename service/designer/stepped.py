@@ -7,7 +7,7 @@ from dataclasses import dataclass, replace
 
 from service import design
 from service.design.multisection import MAX_SECTIONS, InfeasibleDesignError
-from service.designer.finish import Job, finish_many
+from service.designer.finish import Job, finish_one
 from service.designer.lines import DesignOptions, Target, target_for
 from service.errors import UnmeetableRequestError
 from service.schemas.bulk import DesignSummary
@@ -151,4 +151,4 @@ def designed(
 
 
 def _finished(plan: Plan, sections: int, notes: tuple[str, ...], options: DesignOptions | None) -> TransformerDesign:
-    return finish_many([plan.job(sections, notes)], options)[0]
+    return finish_one(plan.job(sections, notes), options)
