@@ -31,11 +31,16 @@ def check_grid_points(line: LineCascade, stop_hz: float | np.ndarray) -> int:
     through at most about 2 Theta / pi lobes between DC and there. For a stacked line (one stop
     frequency per design) the count is the one the longest design needs.
     """
+    return int(check_grid_counts(line, stop_hz).max())
+
+
+def check_grid_counts(line: LineCascade, stop_hz: float | np.ndarray) -> np.ndarray:
+    """check_grid_points of each design of a stacked line (of the one line otherwise)."""
     stops = np.asarray(stop_hz, dtype=float)
     frequency = stops.reshape(stops.shape + (1,) * (line.geometry.ndim - 1 - stops.ndim))
-    total = float(line.electrical_lengths_rad(frequency).sum(axis=-1).max())
-    lobes = math.ceil(2.0 * total / math.pi) + 1
-    return min(max(CHECK_POINTS_PER_LOBE * lobes + 1, MIN_CHECK_POINTS), MAX_CHECK_POINTS)
+    total = line.electrical_lengths_rad(frequency).sum(axis=-1)
+    lobes = np.ceil(2.0 * total / math.pi) + 1.0
+    return np.minimum(np.maximum(CHECK_POINTS_PER_LOBE * lobes + 1.0, MIN_CHECK_POINTS), MAX_CHECK_POINTS).astype(int)
 
 
 def return_loss_db(reflection: np.ndarray | float) -> np.ndarray:
@@ -111,10 +116,11 @@ def worst_reflection(line: LineCascade, start_hz: float, stop_hz: float) -> tupl
     return float(worst), float(where)
 
 
-def aligned_count(minimum: int, points: int) -> int:
-    """The smallest grid size >= minimum whose evenly spread grid contains every point of a `points` grid."""
-    steps = points - 1
-    return steps * math.ceil((minimum - 1) / steps) + 1
+def aligned_count(minimum: np.ndarray, points: np.ndarray) -> np.ndarray:
+    """The smallest grid sizes >= minimum whose evenly spread grids contain every point of a
+    `points` grid (elementwise)."""
+    steps = np.asarray(points) - 1
+    return steps * -(-(np.asarray(minimum) - 1) // steps) + 1
 
 
 def check_many(
@@ -133,14 +139,26 @@ def check_many(
     """
     results: list[tuple[VerifiedFigures, ResponseCurve | None] | None] = [None] * len(lines)
     for group in stacked_groups(lines):
-        by_points: dict[int, list[int]] = {}
-        for index in group:
-            by_points.setdefault(int(points[index]), []).append(index)
-        for count, indices in by_points.items():
-            checked = _check_group(lines, indices, starts, stops, specs, count, curves)
+        for (count, size), indices in _by_grid(lines, group, stops, points).items():
+            checked = _check_group(lines, indices, starts, stops, specs, count, size, curves)
             for index, result in zip(indices, checked, strict=True):
                 results[index] = result
     return results
+
+
+def _by_grid(
+    lines: list[LineCascade], group: list[int], stops: np.ndarray, points: np.ndarray
+) -> dict[tuple[int, int], list[int]]:
+    """The group's lines by (curve points, check grid size), the grid each would get checked alone:
+    so a design's figures never depend on the designs it is stacked with."""
+    line = stacked(lines, group)
+    minimum = check_grid_counts(line, stops[group[0]] if len(group) == 1 else stops[group]).reshape(-1)
+    counts = points[group]
+    sizes = aligned_count(minimum, counts)
+    by_grid: dict[tuple[int, int], list[int]] = {}
+    for index, count, size in zip(group, counts.tolist(), sizes.tolist(), strict=True):
+        by_grid.setdefault((count, size), []).append(index)
+    return by_grid
 
 
 def _check_group(
@@ -150,12 +168,11 @@ def _check_group(
     stops: np.ndarray,
     specs: np.ndarray,
     points: int,
+    count: int,
     curves: bool,
 ) -> list[tuple[VerifiedFigures, ResponseCurve | None]]:
     line = stacked(lines, indices)
-    single = len(indices) == 1
-    count = aligned_count(check_grid_points(line, stops[indices[0]] if single else stops[indices]), points)
-    grid = _grids(starts[indices], stops[indices], count, single)
+    grid = _grids(starts[indices], stops[indices], count, len(indices) == 1)
     values, losses = line.response(grid, with_losses=line.medium.lossy)
     worst, where = (np.atleast_1d(a) for a in worst_reflections(line, grid, values))
     losses = None if losses is None else np.atleast_2d(losses)

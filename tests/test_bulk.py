@@ -74,6 +74,29 @@ def test_batch_equals_single_requests_item_by_item(client):
         assert batched["response"] == alone["response"]
 
 
+def test_stacked_designs_of_different_bands_equal_their_single_requests(client):
+    # Designs of one section count share a stacked check even when their bands differ; each must
+    # still be checked on the grid it would get alone, so that its figures never depend on the
+    # other items of the batch (6 sections and 11 curve points make the grid sizes differ).
+    items = [
+        {
+            "method": "chebyshev",
+            "source_ohm": 50,
+            "load": {"resistance_ohm": 8.0 + 23.0 * k},
+            "band": {"start_hz": 1e9 + 0.1e9 * k, "stop_hz": (1e9 + 0.1e9 * k) * (1.1 + 0.6 * k)},
+            "sections": 6,
+            "points": 11,
+            "theory": ("exact", "small-reflection")[k % 2],
+        }
+        for k in range(12)
+    ]
+    results = client.post("/v1/batch", json={"requests": items, "include_curves": True}).json()["results"]
+    for item, result in zip(items, results, strict=True):
+        alone = single(client, item)
+        assert result["design"]["verified"] == alone["verified"]
+        assert result["design"]["response"] == alone["response"]
+
+
 def test_summaries_leave_out_curves_by_default(client):
     result = client.post("/v1/batch", json={"requests": ITEMS[:1]}).json()["results"][0]
     assert result["design"]["response"] is None
