@@ -34,7 +34,8 @@ class Plan:
     sections: int | None  # as requested; None means: by spec
 
     def job(self, sections: int, notes: tuple[str, ...] = ()) -> Job:
-        return replace(jobs_for([self], [sections])[0], notes=notes)
+        job = jobs_for([self], [sections])[0]
+        return replace(job, notes=notes) if notes else job
 
     def theory_sections(self) -> int:
         """The requested count, or the theory's smallest count for the spec."""
