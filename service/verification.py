@@ -139,19 +139,20 @@ def check_many(
     """
     results: list[tuple[VerifiedFigures, ResponseCurve | None] | None] = [None] * len(lines)
     for group in stacked_groups(lines):
-        for (count, size), indices in _by_grid(lines, group, stops, points).items():
-            checked = _check_group(lines, indices, starts, stops, specs, count, size, curves)
+        line = stacked(lines, group)
+        for (curve_points, grid_size), indices in _by_grid(line, group, stops, points).items():
+            part = line if len(indices) == len(group) else stacked(lines, indices)
+            checked = _check_group(part, indices, starts, stops, specs, curve_points, grid_size, curves)
             for index, result in zip(indices, checked, strict=True):
                 results[index] = result
     return results
 
 
 def _by_grid(
-    lines: list[LineCascade], group: list[int], stops: np.ndarray, points: np.ndarray
+    line: LineCascade, group: list[int], stops: np.ndarray, points: np.ndarray
 ) -> dict[tuple[int, int], list[int]]:
-    """The group's lines by (curve points, check grid size), the grid each would get checked alone:
-    so a design's figures never depend on the designs it is stacked with."""
-    line = stacked(lines, group)
+    """The group's lines (stacked as `line`) by (curve points, check grid size), the grid each would
+    get checked alone: so a design's figures never depend on the designs it is stacked with."""
     minimum = check_grid_counts(line, stops[group[0]] if len(group) == 1 else stops[group]).reshape(-1)
     counts = points[group]
     sizes = aligned_count(minimum, counts)
@@ -162,7 +163,7 @@ def _by_grid(
 
 
 def _check_group(
-    lines: list[LineCascade],
+    line: LineCascade,
     indices: list[int],
     starts: np.ndarray,
     stops: np.ndarray,
@@ -171,7 +172,7 @@ def _check_group(
     count: int,
     curves: bool,
 ) -> list[tuple[VerifiedFigures, ResponseCurve | None]]:
-    line = stacked(lines, indices)
+    """The figures (and curves) of the lines at `indices`, stacked as `line`, on grids of `count` points."""
     grid = _grids(starts[indices], stops[indices], count, len(indices) == 1)
     values, losses = line.response(grid, with_losses=line.medium.lossy)
     worst, where = (np.atleast_1d(a) for a in worst_reflections(line, grid, values))
