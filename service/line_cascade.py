@@ -76,8 +76,7 @@ class LineCascade:
     def _common_phase(self) -> np.ndarray:
         """The phase per hertz for the cascade: one value per line (last axis of one) where every
         section has the same electrical length, as in most stepped transformers."""
-        phase_per_hz = self._fixed_sections[1]
-        return phase_per_hz[..., :1] if (phase_per_hz == phase_per_hz[..., :1]).all() else phase_per_hz
+        return network.common_lengths(self._fixed_sections[1])
 
     def _phase_per_hz(self, eps_eff: np.ndarray) -> np.ndarray:
         """beta l / f of each section: 2 pi sqrt(eps_eff) l / c."""

@@ -90,8 +90,8 @@ def lossless_cascade(impedances_ohm: np.ndarray, electrical_lengths_rad: np.ndar
     """
     impedances = np.asarray(impedances_ohm, dtype=float)
     lengths = np.asarray(electrical_lengths_rad, dtype=float)
-    commensurate = lengths.shape[-1] == 1 or bool((lengths == lengths[..., :1]).all())
-    angles = lengths[..., :1] if commensurate else lengths
+    angles = common_lengths(lengths)
+    commensurate = angles.shape[-1] == 1
     cosines, sines = np.cos(angles), np.sin(angles)
     sections = max(impedances.shape[-1], lengths.shape[-1])
 
@@ -115,6 +115,14 @@ def lossless_cascade(impedances_ohm: np.ndarray, electrical_lengths_rad: np.ndar
             d * cos_t - c * z_sin,
         )
     return LosslessAbcd(a, b, c, d)
+
+
+def common_lengths(lengths: np.ndarray) -> np.ndarray:
+    """The lengths with a last axis of one where every section's is the same (a commensurate line),
+    else the lengths themselves."""
+    if lengths.shape[-1] == 1:
+        return lengths
+    return lengths[..., :1] if (lengths == lengths[..., :1]).all() else lengths
 
 
 def lossless_reflection(network: LosslessAbcd, load_ohm: np.ndarray, reference_ohm: float) -> np.ndarray:

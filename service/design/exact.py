@@ -55,7 +55,7 @@ def _spectral_factor(numerator: np.ndarray) -> np.ndarray:
     roots = _polynomial_roots(product).reshape(-1, 2 * sections)
     order = np.abs(roots).argsort(axis=-1)[:, sections:]
     outside = roots[np.arange(roots.shape[0])[:, None], order].reshape(*lead, sections)
-    factor = np.zeros((*numerator.shape[:-1], sections + 1), dtype=complex)  # descending powers
+    factor = np.zeros((*lead, sections + 1), dtype=complex)  # descending powers
     factor[..., 0] = 1.0
     for index in range(sections):  # multiply in (z - root), one root at a time
         root = outside[..., index : index + 1]

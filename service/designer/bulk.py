@@ -27,12 +27,7 @@ CHUNK_ITEMS = 256
 
 def summary(design: TransformerDesign | DesignSummary, include_curves: bool) -> DesignSummary:
     """The table-sized view of a design (a summary already is one)."""
-    if isinstance(design, DesignSummary):
-        return design
-    fields = DesignSummary.model_fields.keys() - {"response"}
-    return DesignSummary(
-        **{name: getattr(design, name) for name in fields}, response=design.response if include_curves else None
-    )
+    return design if isinstance(design, DesignSummary) else DesignSummary.picked(dict(design), include_curves)
 
 
 def design_items(

@@ -35,7 +35,6 @@ from service.section_tables import SectionTable, section_tables
 from service.verification import check, check_many
 
 THEORY_METHODS = ("binomial", "chebyshev")  # the methods a request may switch to the exact theory
-SUMMARY_BLOCKS = ("center_hz", "total_length_m", "sections", "verified", "medium")  # what a summary shows
 
 
 @dataclass(frozen=True)
@@ -160,14 +159,9 @@ def _assemble(
     warnings += bode_fano_warnings(blocks["bode_fano"], spec)
     if target.rotation is not None:
         warnings.append(_rotation_note(request, target))
-    if summary:
-        shown = {name: blocks[name] for name in SUMMARY_BLOCKS}
-        return DesignSummary(
-            method=job.method, theory=theory, profile=None, predicted=predicted, warnings=warnings, **shown
-        )
-    return TransformerDesign(
-        method=job.method, theory=theory, predicted=predicted, refinement=refinement, **blocks, warnings=warnings
-    )
+    fields = {"method": job.method, "theory": theory, "predicted": predicted, "refinement": refinement}
+    fields |= blocks | {"warnings": warnings}
+    return DesignSummary.picked(fields, include_curve=False) if summary else TransformerDesign(**fields)
 
 
 def _departure(verified: float, predicted: float) -> float | None:

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from collections.abc import Mapping
 from typing import Annotated, Any, Literal
 
 from pydantic import BaseModel, Field, model_validator
@@ -34,6 +35,13 @@ class DesignSummary(BaseModel):
     verified: VerifiedFigures
     warnings: list[str]
     response: ResponseCurve | None = None
+
+    @classmethod
+    def picked(cls, fields: Mapping[str, Any], include_curve: bool) -> DesignSummary:
+        """The summary of a design given by its fields (a design's own, or those it is built from);
+        a field the design does not have, such as a stepped design's profile, is None."""
+        shown = {name: fields.get(name) for name in cls.model_fields}
+        return cls(**shown | {"response": shown["response"] if include_curve else None})
 
 
 class ItemResult(BaseModel):
