@@ -1,6 +1,6 @@
 """A bounded load test on loopback: a fixed number of design requests at 32-way concurrency.
 
-Run with:  python bench/load_test.py [requests]   (default 2000; needs the test extra)
+Run with:  python -m bench.load_test [requests]   (default 2000; needs the test extra)
 
 Starts its own server on 127.0.0.1, sends exactly that many requests (a mix of methods), and
 prints the error count, the latency percentiles and the throughput. It never targets any other host.

@@ -45,11 +45,12 @@ class Settings:
     def from_env(cls, environ: dict[str, str] | None = None) -> Settings:
         """Settings from STEPLINE_* environment variables, defaults elsewhere."""
         environ = os.environ if environ is None else environ
+        defaults = cls()
         values = {}
         for setting in dataclasses.fields(cls):
             raw = environ.get(f"STEPLINE_{setting.name.upper()}")
             if raw is None:
                 continue
-            kind = type(getattr(cls(), setting.name))
+            kind = type(getattr(defaults, setting.name))
             values[setting.name] = [v.strip() for v in raw.split(",") if v.strip()] if kind is list else kind(raw)
         return cls(**values)
