@@ -40,7 +40,7 @@ def cascade_against_scikit_rf() -> None:
     import skrf
     from skrf.media import DefinedGammaZ0
 
-    from service import network
+    from service.analysis import network
 
     rng = np.random.default_rng(5)
     impedances, lengths = rng.uniform(20, 120, 8), rng.uniform(0.01, 0.05, 8)

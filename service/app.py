@@ -12,9 +12,9 @@ from fastapi.staticfiles import StaticFiles
 
 from service import __version__
 from service.api import bulk, health, networks, realization, transformers, web
+from service.api.middleware import AccessLog, ApiKey, BodyLimit
+from service.api.security import SecurityHeaders
 from service.errors import install_error_handlers
-from service.middleware import AccessLog, ApiKey, BodyLimit
-from service.security import SecurityHeaders
 from service.settings import Settings
 
 DESCRIPTION = (

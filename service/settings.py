@@ -11,7 +11,7 @@ import os
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from service.designer.lines import DEFAULT_MIN_FEATURE_M, DesignOptions
+from service.pipeline.target import DEFAULT_MIN_FEATURE_M, DesignOptions
 from service.schemas.bulk import DEFAULT_MAX_SWEEP_DESIGNS
 from service.schemas.common import MAX_POINTS
 from service.schemas.tapers import MAX_SEGMENTS

@@ -167,7 +167,7 @@ def test_sweep_expands_every_combination_in_order(client):
 
 
 def test_log_range():
-    from service.designer.bulk import sweep_values
+    from service.pipeline.sweeps import sweep_values
     from service.schemas.bulk import ValueRange
 
     assert sweep_values(ValueRange(start=1, stop=100, count=3, spacing="log")) == pytest.approx([1, 10, 100])

@@ -7,8 +7,8 @@ import pytest
 from scipy.optimize import minimize_scalar
 from scipy.signal import argrelmax
 
-from service import network
-from service.design import (
+from service.analysis import network
+from service.synthesis import (
     EXACT,
     SMALL_REFLECTION,
     band_edge_angle_rad,
@@ -16,12 +16,12 @@ from service.design import (
     chebyshev,
     stepped_many,
 )
-from service.design.exact import _spectral_factor
-from service.design.multisection import chebyshev_weights
+from service.synthesis.exact import _spectral_factor
+from service.synthesis.multisection import chebyshev_weights
 
 
 def reflection_of(impedances, source, load, theta):
-    """|Gamma| of quarter-wave (at theta = pi/2) sections, by service.network alone."""
+    """|Gamma| of quarter-wave (at theta = pi/2) sections, by service.analysis.network alone."""
     theta = np.atleast_1d(theta)
     abcd = network.cascade(impedances, np.outer(theta, np.ones(len(impedances))))
     return np.abs(network.reflection(network.input_impedance(abcd, load), source))

@@ -8,10 +8,10 @@ import numpy as np
 import pytest
 import skrf
 
-from service import network
-from service.design.bode_fano import bode_fano_min_reflection
-from service.design.reactive import rotating_section
+from service.analysis import network
 from service.formats.touchstone import TouchstoneError, read_one_port
+from service.synthesis.bode_fano import bode_fano_min_reflection
+from service.synthesis.reactive import rotating_section
 
 
 def design(client, method: str, body: dict) -> dict:

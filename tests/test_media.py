@@ -7,8 +7,8 @@ import pytest
 import skrf
 from skrf.media import MLine
 
-from service.media import CoaxLine, MicrostripLine, StriplineLine
-from service.media.microstrip import dispersive_line, static_line
+from service.physics.media import CoaxLine, MicrostripLine, StriplineLine
+from service.physics.media.microstrip import dispersive_line, static_line
 
 SUBSTRATES = [  # (eps_r, height, thickness): FR-4-like, a ceramic-filled laminate, a PTFE board
     (4.4, 1.6e-3, 35e-6),

@@ -6,7 +6,7 @@ import pytest
 import skrf
 from skrf.media import DefinedGammaZ0
 
-from service import network
+from service.analysis import network
 
 C0 = network.SPEED_OF_LIGHT_M_PER_S
 

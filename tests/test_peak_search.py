@@ -5,10 +5,10 @@ import numpy as np
 import pytest
 from scipy.optimize import minimize_scalar
 
-from service.line_cascade import LineCascade
-from service.loads import FixedLoad
-from service.media.ideal import IdealLine
-from service.verification import worst_reflection
+from service.analysis.line_cascade import LineCascade
+from service.analysis.worst_case import worst_reflection
+from service.physics.loads import FixedLoad
+from service.physics.media.ideal import IdealLine
 
 
 @pytest.mark.parametrize("seed", range(4))

@@ -7,7 +7,7 @@ import numpy as np
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from service import network
+from service.analysis import network
 
 PROPERTY_SETTINGS = settings(
     max_examples=60, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture]
@@ -35,7 +35,7 @@ def design_requests(draw):
 
 
 def independent_worst(result, body):
-    """The worst reflection on a dense grid, straight from service.network and the response's sections."""
+    """The worst reflection on a dense grid, straight from service.analysis.network and the response's sections."""
     f = np.linspace(body["band"]["start_hz"], body["band"]["stop_hz"], 20001)
     z = np.array([s["impedance_ohm"] for s in result["sections"]])
     lengths = np.array([s["length_m"] for s in result["sections"]])

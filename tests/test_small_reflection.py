@@ -1,4 +1,4 @@
-"""Small-reflection synthesis (service.design) against textbook examples and SciPy."""
+"""Small-reflection synthesis (service.synthesis) against textbook examples and SciPy."""
 
 import math
 
@@ -6,7 +6,7 @@ import numpy as np
 import pytest
 from scipy.special import comb, eval_chebyt
 
-from service.design import (
+from service.synthesis import (
     band_edge_angle_rad,
     binomial,
     binomial_sections_for,
@@ -14,7 +14,7 @@ from service.design import (
     chebyshev_sections_for,
     quarter_wave,
 )
-from service.design.multisection import chebyshev_peak_ratio, chebyshev_weights
+from service.synthesis.multisection import chebyshev_peak_ratio, chebyshev_weights
 
 
 def test_binomial_three_sections_textbook_example():

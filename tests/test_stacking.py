@@ -7,12 +7,12 @@ to high-precision arithmetic; stacking must not change a single figure.
 import numpy as np
 import pytest
 
-from service.line_cascade import STACK_DESIGNS, LineCascade, stack, stacked_groups
-from service.loads import FixedLoad
-from service.media.ideal import IdealLine
-from service.media.microstrip import MicrostripLine
-from service.section_tables import section_tables
-from service.verification import check, check_grid_points, check_many
+from service.analysis.line_cascade import STACK_DESIGNS, LineCascade, stack, stacked_groups
+from service.analysis.section_tables import section_tables
+from service.analysis.worst_case import check, check_grid_points, check_many
+from service.physics.loads import FixedLoad
+from service.physics.media.ideal import IdealLine
+from service.physics.media.microstrip import MicrostripLine
 
 MEDIA = {
     "ideal": (IdealLine(velocity_factor=0.7), (20.0, 120.0)),

@@ -5,8 +5,8 @@ import math
 import numpy as np
 import pytest
 
-from service import network
-from service.design.tapers import klopfenstein_phi, length_for_spec, log_profile, taper_reflection
+from service.analysis import network
+from service.synthesis.tapers import klopfenstein_phi, length_for_spec, log_profile, taper_reflection
 
 PROFILES = ["exponential", "triangular", "klopfenstein"]
 

@@ -5,7 +5,7 @@ import math
 import numpy as np
 import pytest
 
-from service.network import SPEED_OF_LIGHT_M_PER_S
+from service.analysis.network import SPEED_OF_LIGHT_M_PER_S
 
 
 def post(client, method: str, body: dict) -> dict:

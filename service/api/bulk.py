@@ -9,11 +9,11 @@ from fastapi.responses import Response, StreamingResponse
 
 from service.api.delivery import json_response
 from service.api.documented import error_responses
+from service.api.examples import request_examples
+from service.api.limits import check_batch, check_sweep
 from service.api.scheduling import run_sized
-from service.designer.budget import check_batch, check_sweep
-from service.designer.bulk import design_items, sweep_results, sweep_size, sweep_worst_item
-from service.examples import request_examples
 from service.formats.csv_table import sweep_csv_lines
+from service.pipeline.sweeps import design_items, sweep_results, sweep_size, sweep_worst_item
 from service.schemas.bulk import BatchRequest, BatchResult, SweepRequest, SweepResult
 from service.settings import Settings
 

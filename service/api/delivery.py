@@ -6,9 +6,9 @@ from fastapi import Query, Request
 from fastapi.responses import Response
 from pydantic import BaseModel
 
-from service.designer.exports import two_port
 from service.formats.csv_table import response_csv
 from service.formats.touchstone import write_two_port
+from service.pipeline.exports import two_port
 from service.schemas.results import AnalysisResult
 from service.schemas.transformers import MatchRequest
 

@@ -5,12 +5,12 @@ from typing import Annotated
 from fastapi import APIRouter, Body, Request
 from fastapi.responses import Response
 
-from service import designer
+from service import pipeline
 from service.api.delivery import FormatQuery, deliver, export_responses, output_format
 from service.api.documented import error_responses
+from service.api.examples import request_examples
+from service.api.limits import check_design
 from service.api.scheduling import run_sized
-from service.designer.budget import check_design
-from service.examples import request_examples
 from service.schemas.networks import AnalyzeRequest
 from service.schemas.results import AnalysisResult
 from service.settings import Settings
@@ -32,7 +32,7 @@ def build_router(settings: Settings) -> APIRouter:
     ) -> Response:
         """Verify a list of sections (e.g. a design rounded to buildable impedances) by the exact cascade."""
         seconds = check_design(request.model_dump() | {"sections": len(request.sections)}, settings)
-        result = await run_sized(lambda: designer.analyze(request, options), seconds)
+        result = await run_sized(lambda: pipeline.analyze(request, options), seconds)
         return deliver(request, result, output_format(format, http), "analysis")
 
     return router

@@ -5,10 +5,10 @@ from typing import Annotated
 from fastapi import APIRouter, Body
 from fastapi.responses import Response
 
-from service import designer
+from service import pipeline
 from service.api.documented import error_responses
-from service.designer.budget import check_design, check_yield
-from service.examples import request_examples
+from service.api.examples import request_examples
+from service.api.limits import check_design, check_yield
 from service.formats.svg import transformer_svg
 from service.schemas.items import DesignItem
 from service.schemas.tolerance import YieldRequest, YieldResult
@@ -33,7 +33,7 @@ def build_router(settings: Settings) -> APIRouter:
     def drawing(item: Annotated[DesignItem, Body(openapi_examples=drawing_examples)]) -> Response:
         """Design with the named method and draw it: strip steps from above, or the coax in cut-away."""
         check_design(item.model_dump(), settings)
-        design = designer.design_item(item, options)
+        design = pipeline.design_item(item, options)
         outer = getattr(item.medium, "outer_diameter_m", None)
         title = f"Stepline {item.method} transformer, {design.medium}, {len(design.sections)} sections"
         return Response(transformer_svg(design, title, outer), media_type=SVG_TYPE)
@@ -42,6 +42,6 @@ def build_router(settings: Settings) -> APIRouter:
     def tolerance_yield(request: Annotated[YieldRequest, Body(openapi_examples=yield_examples)]) -> YieldResult:
         """Design, then perturb widths, etch, permittivity and height over seeded trials."""
         check_yield(request.design.model_dump(), request.trials, settings)
-        return designer.yield_analysis(request, options)
+        return pipeline.yield_analysis(request, options)
 
     return router

@@ -6,12 +6,12 @@ from typing import Annotated
 from fastapi import APIRouter, Body, Request
 from fastapi.responses import Response
 
-from service import designer
+from service import pipeline
 from service.api.delivery import FormatQuery, deliver, export_responses, output_format
 from service.api.documented import error_responses
+from service.api.examples import request_examples
+from service.api.limits import check_design
 from service.api.scheduling import run_sized
-from service.designer.budget import check_design
-from service.examples import request_examples
 from service.schemas.comparison import CompareRequest, Comparison
 from service.schemas.results import TransformerDesign
 from service.schemas.tapers import TaperRequest
@@ -25,28 +25,28 @@ DESIGN_ROUTES: list[tuple[str, type[MatchRequest], DesignFunction, str, str]] = 
     (
         "quarter-wave",
         QuarterWaveRequest,
-        designer.quarter_wave,
+        pipeline.quarter_wave,
         "Quarter-wave transformer",
         "One section of impedance sqrt(Z0 RL), a quarter wave long at the band centre.",
     ),
     (
         "binomial",
         TransformerRequest,
-        designer.binomial,
+        pipeline.binomial,
         "Binomial (maximally flat)",
         "Maximally flat multi-section transformer; N given, or the smallest N meeting the spec.",
     ),
     (
         "chebyshev",
         TransformerRequest,
-        designer.chebyshev,
+        pipeline.chebyshev,
         "Chebyshev (equal ripple)",
         "Equal-ripple multi-section transformer; N, ripple, both, or neither (spec 0.1).",
     ),
     (
         "taper",
         TaperRequest,
-        designer.tapered,
+        pipeline.tapered,
         "Tapered line",
         "Exponential, triangular or Klopfenstein taper, cut into equal steps and checked exactly.",
     ),
@@ -89,6 +89,6 @@ def build_router(settings: Settings) -> APIRouter:
     def compare(request: Annotated[CompareRequest, Body(openapi_examples=compare_examples)]) -> Comparison:
         """All applicable methods and theories for one request, ranked for meeting the spec shortest."""
         check_design(request.model_dump(), settings, count=8)
-        return designer.compare(request, options)
+        return pipeline.compare(request, options)
 
     return router

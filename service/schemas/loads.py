@@ -9,7 +9,7 @@ import numpy as np
 from pydantic import Field, field_validator, model_validator
 
 from service.formats.touchstone import TouchstoneError, read_one_port
-from service.loads import CircuitLoad, FixedLoad, LoadModel, TabulatedLoad
+from service.physics.loads import CircuitLoad, FixedLoad, LoadModel, TabulatedLoad
 from service.schemas.common import MAX_IMPEDANCE_OHM, MAX_POINTS, FrequencyHz, ImpedanceOhm, StrictModel
 
 MAX_TOUCHSTONE_CHARS = 2_000_000

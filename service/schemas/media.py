@@ -6,7 +6,7 @@ from typing import Annotated, Literal
 
 from pydantic import Field, model_validator
 
-from service.media import CoaxLine, IdealLine, Medium, MicrostripLine, StriplineLine
+from service.physics.media import CoaxLine, IdealLine, Medium, MicrostripLine, StriplineLine
 from service.schemas.common import StrictModel, VelocityFactor
 
 Permittivity = Annotated[float, Field(ge=1.0, le=128.0, description="Relative permittivity of the dielectric.")]

@@ -1,0 +1,113 @@
+"""Size limits and the per-request compute budget, checked before any work starts.
+
+The compute estimate is a simple cost model calibrated on this project's benchmark machine: a
+fixed cost per design, plus the cascade's cost per line section and frequency, with factors for
+physical media, spec-driven searches, refinement and Monte Carlo trials. It is deliberately
+rough and on the safe side; its only job is to refuse requests that would hold a worker for long.
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+from service.analysis.worst_case import MAX_CHECK_POINTS, MIN_CHECK_POINTS, PEAKS_REFINED
+from service.analysis.worst_case import REFINE_POINTS as VERIFY_REFINE_POINTS
+from service.errors import UnmeetableRequestError
+from service.settings import Settings
+
+PER_DESIGN_S = 1.5e-3
+PER_SECTION_POINT_S = 4e-8
+CHECK_POINTS_RANGE = (MIN_CHECK_POINTS, MAX_CHECK_POINTS)
+REFINE_POINTS = PEAKS_REFINED * (VERIFY_REFINE_POINTS + 1)  # a fine grid and a vertex per peak
+PHYSICAL_MEDIUM_FACTOR = 3.0
+SPEC_DRIVEN_FACTOR = 2.0
+TAPER_FACTOR = 4.0
+REFINEMENT_S = 1.7  # the refinement's own time limit, and a little to check its result
+YIELD_GRID_POINTS = 201
+GUESSED_SECTIONS = 8
+
+
+def _number(value: Any, default: float) -> float:
+    return float(value) if isinstance(value, int | float) and not isinstance(value, bool) else default
+
+
+def design_seconds(item: dict[str, Any]) -> float:
+    """Estimated compute of one design request given as a plain dict (valid or not)."""
+    method = item.get("method")
+    taper = method == "taper" or "profile" in item
+    sections = _number(item.get("segments"), 64) if taper else _number(item.get("sections"), GUESSED_SECTIONS)
+    band = item.get("band") if isinstance(item.get("band"), dict) else {}
+    start, stop = _number(band.get("start_hz"), 1.0), _number(band.get("stop_hz"), 3.0)
+    ratio = 2.0 * stop / (start + stop) if start + stop > 0 else 2.0
+    grid = min(max(48.0 * (sections * ratio + 1.0) + 1.0, CHECK_POINTS_RANGE[0]), CHECK_POINTS_RANGE[1])
+    points = _number(item.get("points"), 201)
+    medium = item.get("medium")
+    factor = PHYSICAL_MEDIUM_FACTOR if isinstance(medium, dict) and medium.get("kind") != "ideal" else 1.0
+    seconds = PER_DESIGN_S + PER_SECTION_POINT_S * sections * (grid + REFINE_POINTS + points) * factor
+    if taper:
+        seconds *= TAPER_FACTOR
+    elif item.get("sections") is None:
+        seconds *= SPEC_DRIVEN_FACTOR
+    load = item.get("load")
+    if isinstance(load, dict) and any(load.get(k) is not None for k in ("circuit", "measured", "touchstone")):
+        seconds += REFINEMENT_S
+    return seconds
+
+
+def yield_seconds(design: dict[str, Any], trials: int) -> float:
+    """Estimated compute of a yield analysis: the design, then every trial on the yield grid."""
+    sections = _number(design.get("sections"), GUESSED_SECTIONS)
+    trial = PER_SECTION_POINT_S * YIELD_GRID_POINTS * sections * PHYSICAL_MEDIUM_FACTOR
+    return design_seconds(design) + trials * trial
+
+
+def check_budget(seconds: float, settings: Settings, field: str) -> None:
+    """Refuse a request whose estimated compute exceeds the per-request budget."""
+    if seconds > settings.compute_budget_s:
+        raise UnmeetableRequestError(
+            field,
+            f"this request would need about {seconds:.3g} s of computation; the limit per request is "
+            f"{settings.compute_budget_s:g} s. Split it into smaller requests.",
+        )
+
+
+def check_sizes(item: dict[str, Any], settings: Settings, prefix: str = "") -> None:
+    """Refuse curve points, taper segments or trials beyond the operator's limits."""
+    for name, limit in (("points", settings.max_points), ("segments", settings.max_segments)):
+        value = item.get(name)
+        if isinstance(value, int) and value > limit:
+            raise UnmeetableRequestError(f"{prefix}{name}", f"at most {limit} allowed on this server; got {value}")
+
+
+def check_design(item: dict[str, Any], settings: Settings, count: int = 1) -> float:
+    """Sizes and budget of a request that makes `count` designs like `item`; its estimated seconds."""
+    check_sizes(item, settings)
+    seconds = count * design_seconds(item)
+    check_budget(seconds, settings, "body")
+    return seconds
+
+
+def check_yield(design: dict[str, Any], trials: int, settings: Settings) -> None:
+    """Sizes, trial count and budget of a yield analysis."""
+    check_sizes(design, settings, "design.")
+    if trials > settings.max_trials:
+        raise UnmeetableRequestError("trials", f"at most {settings.max_trials} allowed on this server")
+    check_budget(yield_seconds(design, trials), settings, "trials")
+
+
+def check_batch(items: list[Any], settings: Settings) -> float:
+    """Item count and budget of a batch; its estimated seconds (items that are not objects cost nothing)."""
+    if len(items) > settings.max_batch_items:
+        raise UnmeetableRequestError(
+            "requests", f"at most {settings.max_batch_items} items per batch; this one has {len(items)}"
+        )
+    seconds = sum(design_seconds(item) for item in items if isinstance(item, dict))
+    check_budget(seconds, settings, "requests")
+    return seconds
+
+
+def check_sweep(total: int, worst_item: dict[str, Any], settings: Settings) -> None:
+    """Grid size and budget of a sweep of `total` designs, none costlier than `worst_item`."""
+    if total > settings.max_sweep_designs:
+        raise UnmeetableRequestError("vary", f"the grid holds {total} designs; at most {settings.max_sweep_designs}")
+    check_budget(total * design_seconds(worst_item), settings, "vary")

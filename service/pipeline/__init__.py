@@ -1,0 +1,22 @@
+"""Orchestration: synthesize with design/, check with the exact cascade, and compare the two.
+
+The only package that calls both the synthesis theory and the independent network analysis.
+"""
+
+from service.pipeline.analyze import analyze
+from service.pipeline.compare import compare
+from service.pipeline.items import design_item
+from service.pipeline.stepped_flow import binomial, chebyshev, quarter_wave
+from service.pipeline.taper_flow import tapered
+from service.pipeline.yield_flow import yield_analysis
+
+__all__ = [
+    "analyze",
+    "binomial",
+    "chebyshev",
+    "compare",
+    "design_item",
+    "quarter_wave",
+    "tapered",
+    "yield_analysis",
+]

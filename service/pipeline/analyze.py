@@ -1,0 +1,37 @@
+"""The exact check of a user's own sections."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from service.analysis.section_tables import section_tables
+from service.analysis.worst_case import check
+from service.pipeline.messages import bode_fano_warnings, spec_warnings
+from service.pipeline.target import DesignOptions, checked_blocks, realize
+from service.schemas.networks import AnalyzeRequest
+from service.schemas.results import AnalysisResult
+
+
+def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> AnalysisResult:
+    """Exact figures of the user's sections, realized in the request's medium.
+
+    A section given by electrical length gets the physical length that has it at its reference
+    frequency (the band centre by default); one given by length keeps it.
+    """
+    options = options or DesignOptions()
+    center = request.band.center_hz
+    impedances = np.array([s.impedance_ohm for s in request.sections])
+    angles = np.array([np.deg2rad(s.electrical_length_deg or 0.0) for s in request.sections])
+    references = np.array([s.reference_hz or center for s in request.sections])
+    line = realize(request, request.load.model(), impedances, angles, references)
+    given = np.array([s.length_m is not None for s in request.sections])
+    if np.any(given):
+        physical = np.array([s.length_m or 0.0 for s in request.sections])
+        line = line.with_sections(line.geometry, np.where(given, physical, line.lengths_m))
+    band = request.band
+    verified, curve = check(line, band.start_hz, band.stop_hz, request.spec_reflection, request.points)
+    table = section_tables([line], np.array([band.center_hz]))[0]
+    blocks = checked_blocks(line, request, verified, curve, table, options)
+    warnings = [*blocks.pop("medium_notes"), *spec_warnings(verified)]
+    warnings += bode_fano_warnings(blocks["bode_fano"], request.spec_reflection)
+    return AnalysisResult(**blocks, warnings=warnings)

@@ -1,0 +1,124 @@
+"""Batches and sweeps: validate items one by one, design them in stacked groups, report each."""
+
+from __future__ import annotations
+
+import copy
+import itertools
+import math
+from collections.abc import Iterator
+from typing import Any
+
+import numpy as np
+from pydantic import TypeAdapter, ValidationError
+
+from service.api.limits import check_sizes
+from service.errors import UnmeetableRequestError, validation_problems
+from service.pipeline.batch import design_batch
+from service.pipeline.target import DesignOptions
+from service.schemas.bulk import DesignSummary, ItemResult, SweepRequest, ValueRange
+from service.schemas.errors import ErrorBody, Problem
+from service.schemas.items import DesignItem
+from service.schemas.results import TransformerDesign
+from service.settings import Settings
+
+ITEM_ADAPTER: TypeAdapter = TypeAdapter(DesignItem)
+CHUNK_ITEMS = 256
+
+
+def summary(design: TransformerDesign | DesignSummary, include_curves: bool) -> DesignSummary:
+    """The table-sized view of a design (a summary already is one)."""
+    return design if isinstance(design, DesignSummary) else DesignSummary.picked(dict(design), include_curves)
+
+
+def design_items(
+    raw_items: list[Any], include_curves: bool, options: DesignOptions, settings: Settings, offset: int = 0
+) -> list[ItemResult]:
+    """Validate and design each raw item; errors stay with their item."""
+    results: list[ItemResult | None] = [None] * len(raw_items)
+    valid, positions = [], []
+    for position, raw in enumerate(raw_items):
+        try:
+            item = ITEM_ADAPTER.validate_python(raw)
+            check_sizes(raw, settings)
+            valid.append(item)
+            positions.append(position)
+        except ValidationError as exc:
+            error = ErrorBody(status=422, title="invalid request", problems=validation_problems(exc.errors()))
+            results[position] = ItemResult(index=offset + position, status=422, error=error)
+        except UnmeetableRequestError as exc:
+            results[position] = _unmeetable(offset + position, exc)
+    for position, outcome in zip(positions, design_batch(valid, options, summaries=not include_curves), strict=True):
+        if isinstance(outcome, UnmeetableRequestError):
+            results[position] = _unmeetable(offset + position, outcome)
+        else:
+            results[position] = ItemResult(index=offset + position, status=200, design=summary(outcome, include_curves))
+    return results
+
+
+def _unmeetable(index: int, exc: UnmeetableRequestError) -> ItemResult:
+    problem = Problem(field=exc.field, message=exc.message)
+    return ItemResult(
+        index=index, status=422, error=ErrorBody(status=422, title="request cannot be met", problems=[problem])
+    )
+
+
+def sweep_values(values: list[Any] | ValueRange) -> list[Any]:
+    """The values of one swept parameter."""
+    if isinstance(values, list):
+        return values
+    if values.count == 1:
+        return [values.start]
+    if values.spacing == "log":
+        return np.geomspace(values.start, values.stop, values.count).tolist()
+    return np.linspace(values.start, values.stop, values.count).tolist()
+
+
+def sweep_size(request: SweepRequest) -> int:
+    """How many designs the grid holds."""
+    return math.prod(len(sweep_values(v)) if isinstance(v, list) else v.count for v in request.vary.values())
+
+
+def _with_value(base: dict[str, Any], path: str, value: Any) -> dict[str, Any]:
+    target = base
+    keys = path.split(".")
+    for key in keys[:-1]:
+        child = target.get(key)
+        if not isinstance(child, dict):
+            child = {}
+            target[key] = child
+        target = child
+    target[keys[-1]] = copy.deepcopy(value)
+    return base
+
+
+def sweep_items(request: SweepRequest) -> Iterator[tuple[dict[str, Any], dict[str, Any]]]:
+    """(parameters, raw item) for every grid point, lazily, in order."""
+    keys = list(request.vary)
+    for combination in itertools.product(*(sweep_values(request.vary[key]) for key in keys)):
+        item = copy.deepcopy(request.base)
+        parameters = dict(zip(keys, combination, strict=True))
+        for key, value in parameters.items():
+            item = _with_value(item, key, value)
+        yield parameters, item
+
+
+def sweep_worst_item(request: SweepRequest) -> dict[str, Any]:
+    """The base item with the largest swept section count, points and segments: the costliest design."""
+    item = copy.deepcopy(request.base)
+    for key in ("sections", "points", "segments"):
+        values = request.vary.get(key)
+        numbers = [v for v in sweep_values(values) if isinstance(v, int | float)] if values is not None else []
+        if numbers:
+            item[key] = max(numbers)
+    return item
+
+
+def sweep_results(request: SweepRequest, options: DesignOptions, settings: Settings) -> Iterator[ItemResult]:
+    """Every design of the sweep, in order, computed a chunk at a time so memory stays flat."""
+    grid = sweep_items(request)
+    offset = 0
+    while chunk := list(itertools.islice(grid, CHUNK_ITEMS)):
+        results = design_items([item for _, item in chunk], request.include_curves, options, settings, offset)
+        for (parameters, _), result in zip(chunk, results, strict=True):
+            yield result.model_copy(update={"parameters": parameters})
+        offset += len(chunk)

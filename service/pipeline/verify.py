@@ -1,0 +1,180 @@
+"""Check synthesized designs by the exact cascade and assemble their responses.
+
+`finish_many` checks a whole list of designs at once: lines of equal shape are stacked so that
+the cascade runs over designs x frequencies x sections in one go.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from service import synthesis
+from service.analysis.line_cascade import LineCascade
+from service.analysis.section_tables import SectionTable, section_tables
+from service.analysis.worst_case import check, check_many
+from service.errors import UnmeetableRequestError
+from service.pipeline.messages import (
+    bode_fano_warnings,
+    coverage_warnings,
+    departure_warnings,
+    spec_warnings,
+)
+from service.pipeline.refine import refine_minimax
+from service.pipeline.target import DesignOptions, Target, checked_blocks, line_for, quarter_wave_m
+from service.schemas.bulk import DesignSummary
+from service.schemas.results import (
+    PredictedFigures,
+    RefinementFigures,
+    ResponseCurve,
+    TransformerDesign,
+    VerifiedFigures,
+)
+from service.schemas.transformers import MatchRequest
+
+THEORY_METHODS = ("binomial", "chebyshev")  # the methods a request may switch to the exact theory
+
+
+@dataclass(frozen=True)
+class Job:
+    """A synthesized design waiting for its exact check."""
+
+    method: str
+    theory: str
+    request: MatchRequest
+    target: Target
+    synthesized: synthesis.SteppedDesign
+    notes: tuple[str, ...] = ()
+
+
+Finished = TransformerDesign | DesignSummary | UnmeetableRequestError
+
+
+def finish(
+    method: str,
+    theory: str,
+    request: MatchRequest,
+    target: Target,
+    synthesized: synthesis.SteppedDesign,
+    notes: list[str] | None = None,
+    options: DesignOptions | None = None,
+) -> TransformerDesign:
+    """The verified response for one synthesized design."""
+    return finish_one(Job(method, theory, request, target, synthesized, tuple(notes or ())), options)
+
+
+def finish_one(job: Job, options: DesignOptions | None = None) -> TransformerDesign:
+    """The verified response for one job; raises UnmeetableRequestError where it cannot be realized."""
+    result = finish_many([job], options)[0]
+    if isinstance(result, UnmeetableRequestError):
+        raise result
+    return result
+
+
+def finish_many(jobs: list[Job], options: DesignOptions | None = None, summaries: bool = False) -> list[Finished]:
+    """Verified responses for many designs (refined first for frequency-dependent loads).
+
+    With `summaries`, each result is the table-sized DesignSummary without its curve, and the
+    parts only a full design shows (curve, junction table) are never built. A job whose sections
+    its medium cannot realize gets its UnmeetableRequestError in its place: it never sinks the rest.
+    """
+    lines = [_line_or_error(job) for job in jobs]
+    kept = [index for index, line in enumerate(lines) if isinstance(line, LineCascade)]
+    done = _finish_lines([jobs[i] for i in kept], [lines[i] for i in kept], options or DesignOptions(), summaries)
+    results: list[Finished] = list(lines)
+    for index, result in zip(kept, done, strict=True):
+        results[index] = result
+    return results
+
+
+def _line_or_error(job: Job) -> LineCascade | UnmeetableRequestError:
+    try:
+        return line_for(job.request, job.target, job.synthesized.impedances_ohm, job.synthesized.electrical_length_rad)
+    except UnmeetableRequestError as exc:
+        return exc
+
+
+def _finish_lines(
+    jobs: list[Job], lines: list[LineCascade], options: DesignOptions, summaries: bool
+) -> list[TransformerDesign | DesignSummary]:
+    starts = np.array([j.request.band.start_hz for j in jobs])
+    stops = np.array([j.request.band.stop_hz for j in jobs])
+    specs = np.array([j.request.spec_reflection for j in jobs])
+    points = np.array([j.request.points for j in jobs])
+    checked = []
+    verified = check_many(lines, starts, stops, specs, points, curves=not summaries)
+    for job, line, (figures, curve) in zip(jobs, lines, verified, strict=True):
+        refinement = None
+        if job.target.load.frequency_dependent:
+            line, refinement, curve = _refine(line, job.request, figures)
+            figures = refinement.after
+        checked.append((job, line, figures, refinement, curve))
+    centers = np.array([j.request.band.center_hz for j in jobs])
+    tables = section_tables([line for _, line, *_ in checked], centers, junctions=not summaries)
+    return [_assemble(*parts, table, options, summaries) for parts, table in zip(checked, tables, strict=True)]
+
+
+def _refine(
+    line: LineCascade, request: MatchRequest, before: VerifiedFigures
+) -> tuple[LineCascade, RefinementFigures, ResponseCurve]:
+    band = request.band
+    refined = refine_minimax(line, band.start_hz, band.stop_hz, quarter_wave_m(line, band.center_hz))
+    after, curve = check(refined.after, band.start_hz, band.stop_hz, request.spec_reflection, request.points)
+    return refined.after, RefinementFigures(before=before, after=after, iterations=refined.iterations), curve
+
+
+def _assemble(
+    job: Job,
+    line: LineCascade,
+    verified: VerifiedFigures,
+    refinement: RefinementFigures | None,
+    curve: ResponseCurve | None,
+    table: SectionTable,
+    options: DesignOptions,
+    summary: bool,
+) -> TransformerDesign | DesignSummary:
+    request, target, synthesized, theory = job.request, job.target, job.synthesized, job.theory
+    band, spec = request.band, request.spec_reflection
+    predicted = PredictedFigures(
+        max_reflection=synthesized.predicted_max_reflection,
+        bandwidth_fraction=synthesized.predicted_bandwidth_fraction,
+        covers_band=synthesized.predicted_max_reflection <= spec * (1.0 + 1e-9),
+        departure_fraction=_departure(verified.max_reflection, synthesized.predicted_max_reflection),
+    )
+    blocks = checked_blocks(line, request, verified, curve, table, options)
+    requested_fraction = (band.stop_hz - band.start_hz) / band.center_hz
+    warnings = [*synthesized.notes, *job.notes, *blocks.pop("medium_notes")]
+    warnings += coverage_warnings(spec, requested_fraction, predicted)
+    suggest_exact = theory == synthesis.SMALL_REFLECTION.name and job.method in THEORY_METHODS
+    warnings += spec_warnings(verified, suggest_exact)
+    if target.rotation is None and not target.load.frequency_dependent:
+        warnings += departure_warnings(predicted, verified, theory, line.medium)
+    else:
+        warnings.append(
+            f"The {theory} prediction covers the transformer into the load's centre-frequency "
+            f"resistance ({target.resistance_ohm:.6g} ohm) only; for this load rely on the verified figures."
+        )
+    warnings += bode_fano_warnings(blocks["bode_fano"], spec)
+    if target.rotation is not None:
+        warnings.append(_rotation_note(request, target))
+    fields = {"method": job.method, "theory": theory, "predicted": predicted, "refinement": refinement}
+    fields |= blocks | {"warnings": warnings}
+    return DesignSummary.picked(fields, include_curve=False) if summary else TransformerDesign(**fields)
+
+
+def _departure(verified: float, predicted: float) -> float | None:
+    """verified / predicted - 1; None where the prediction is (numerically) zero."""
+    if predicted <= 1e-15:
+        return 0.0 if verified <= 1e-12 else None
+    return verified / predicted - 1.0
+
+
+def _rotation_note(request: MatchRequest, target: Target) -> str:
+    """Tell the user what the last section is for."""
+    degrees = math.degrees(float(target.rotation.electrical_length_rad))
+    return (
+        f"The last section is {degrees:.4g} degrees of {request.source_ohm:g} ohm line that turns the "
+        f"load real ({target.resistance_ohm:.6g} ohm) at the band centre; the transformer matches that."
+    )
