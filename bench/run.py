@@ -25,7 +25,7 @@ from contextlib import contextmanager
 import httpx
 import numpy as np
 
-C0 = 299_792_458.0
+C0 = 299_792_458.0  # m/s, exact by the SI definition
 DESIGN_BODY = {
     "source_ohm": 50,
     "load": {"resistance_ohm": 20},

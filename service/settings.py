@@ -11,11 +11,8 @@ import os
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from service.pipeline.target import DEFAULT_MIN_FEATURE_M, DesignOptions
-from service.schemas.bulk import DEFAULT_MAX_SWEEP_DESIGNS
-from service.schemas.common import MAX_POINTS
-from service.schemas.tapers import MAX_SEGMENTS
-from service.schemas.tolerance import MAX_TRIALS
+from service.constants import DEFAULT_MAX_SWEEP_DESIGNS, DEFAULT_MIN_FEATURE_M, MAX_POINTS, MAX_SEGMENTS, MAX_TRIALS
+from service.pipeline.target import DesignOptions
 
 PROJECT_ROOT = Path(__file__).resolve().parent.parent
 

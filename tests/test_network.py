@@ -3,12 +3,13 @@
 import mpmath
 import numpy as np
 import pytest
+import scipy.constants
 import skrf
 from skrf.media import DefinedGammaZ0
 
 from service.analysis import network
 
-C0 = network.SPEED_OF_LIGHT_M_PER_S
+C0 = scipy.constants.c  # speed of light from SciPy (CODATA), not from the project
 
 
 def random_lines(seed: int, count: int = 8) -> tuple[np.ndarray, np.ndarray]:

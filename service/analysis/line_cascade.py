@@ -13,11 +13,11 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.analysis import network
+from service.constants import SPEED_OF_LIGHT_M_PER_S
 from service.physics.loads import FixedLoad, LoadModel
 from service.physics.media import Medium
 
 STACK_DESIGNS = 32  # designs per stacked cascade evaluation
-C0 = network.SPEED_OF_LIGHT_M_PER_S
 
 
 @dataclass(frozen=True)
@@ -80,7 +80,7 @@ class LineCascade:
 
     def _phase_per_hz(self, eps_eff: np.ndarray) -> np.ndarray:
         """beta l / f of each section: 2 pi sqrt(eps_eff) l / c."""
-        return 2.0 * np.pi * np.sqrt(eps_eff) * self.lengths_m / C0
+        return 2.0 * np.pi * np.sqrt(eps_eff) * self.lengths_m / SPEED_OF_LIGHT_M_PER_S
 
     def reflection(self, frequency_hz: np.ndarray) -> np.ndarray:
         """|reflection| seen from the source line at each frequency."""

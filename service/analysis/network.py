@@ -10,7 +10,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-SPEED_OF_LIGHT_M_PER_S = 299_792_458.0
+from service.constants import SPEED_OF_LIGHT_M_PER_S
 
 
 @dataclass(frozen=True)

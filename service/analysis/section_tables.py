@@ -7,7 +7,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.analysis import network
-from service.analysis.line_cascade import C0, LineCascade, stacked_groups
+from service.analysis.line_cascade import LineCascade, stacked_groups
+from service.constants import SPEED_OF_LIGHT_M_PER_S
 from service.physics.loads import LoadModel, impedance_at
 from service.schemas.results import JunctionResult, SectionResult
 
@@ -36,7 +37,7 @@ def section_tables(lines: list[LineCascade], frequencies_hz: np.ndarray, junctio
         geometry, lengths = np.array([m.geometry for m in members]), np.array([m.lengths_m for m in members])
         frequency = np.asarray(frequencies_hz, dtype=float)[indices][:, None]
         params = medium.parameters(geometry, frequency)
-        degrees = 360.0 * frequency * np.sqrt(params.eps_eff) * lengths / C0
+        degrees = 360.0 * frequency * np.sqrt(params.eps_eff) * lengths / SPEED_OF_LIGHT_M_PER_S
         loads = [_resistive_load_ohm(m.load) for m in members]
         ends = np.array([[m.source_ohm, np.nan if r is None else r] for m, r in zip(members, loads, strict=True)])
         chain = np.concatenate((ends[:, :1], params.impedance_ohm, ends[:, 1:]), axis=1)

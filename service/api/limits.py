@@ -12,6 +12,7 @@ from typing import Any
 
 from service.analysis.worst_case import MAX_CHECK_POINTS, MIN_CHECK_POINTS, PEAKS_REFINED
 from service.analysis.worst_case import REFINE_POINTS as VERIFY_REFINE_POINTS
+from service.constants import YIELD_GRID_POINTS
 from service.errors import UnmeetableRequestError
 from service.settings import Settings
 
@@ -23,7 +24,6 @@ PHYSICAL_MEDIUM_FACTOR = 3.0
 SPEC_DRIVEN_FACTOR = 2.0
 TAPER_FACTOR = 4.0
 REFINEMENT_S = 1.7  # the refinement's own time limit, and a little to check its result
-YIELD_GRID_POINTS = 201
 GUESSED_SECTIONS = 8
 
 

@@ -6,13 +6,14 @@ from collections.abc import Callable
 from dataclasses import dataclass, replace
 
 from service import synthesis
+from service.constants import MAX_SECTIONS
 from service.errors import UnmeetableRequestError
 from service.pipeline.target import DesignOptions, Target, target_for
 from service.pipeline.verify import Job, finish_one
 from service.schemas.bulk import DesignSummary
 from service.schemas.results import TransformerDesign
 from service.schemas.transformers import MatchRequest, QuarterWaveRequest, TransformerRequest
-from service.synthesis.multisection import MAX_SECTIONS, InfeasibleDesignError
+from service.synthesis.multisection import InfeasibleDesignError
 
 Synthesized = synthesis.SteppedDesign | synthesis.WeightedDesign
 

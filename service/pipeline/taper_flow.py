@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import math
 
-from service.analysis.network import SPEED_OF_LIGHT_M_PER_S
+from service.constants import SPEED_OF_LIGHT_M_PER_S
 from service.errors import UnmeetableRequestError
 from service.pipeline.target import DesignOptions, Target, target_for
 from service.pipeline.verify import finish

@@ -7,8 +7,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.analysis.line_cascade import LineCascade
-from service.analysis.network import SPEED_OF_LIGHT_M_PER_S
 from service.analysis.section_tables import SectionTable
+from service.constants import SPEED_OF_LIGHT_M_PER_S
 from service.errors import UnmeetableRequestError
 from service.physics.loads import CircuitLoad, LoadModel, impedance_at
 from service.physics.media import IdealLine, RealizationError

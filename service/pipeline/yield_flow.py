@@ -5,6 +5,7 @@ from __future__ import annotations
 import numpy as np
 
 from service.analysis.monte_carlo import Tolerances, monte_carlo
+from service.constants import YIELD_GRID_POINTS
 from service.errors import UnmeetableRequestError
 from service.physics.media import IdealLine
 from service.pipeline.exports import design_line
@@ -12,7 +13,6 @@ from service.pipeline.items import design_item
 from service.pipeline.target import DesignOptions
 from service.schemas.tolerance import Percentiles, YieldRequest, YieldResult
 
-GRID_POINTS = 201
 METHOD_NOTE = (
     "Monte Carlo: each trial draws normal errors (per-section width, board-wide etch bias, "
     "permittivity and substrate height) and is evaluated by the exact cascade at the grid "
@@ -31,7 +31,7 @@ def yield_analysis(request: YieldRequest, options: DesignOptions | None = None) 
     design = design_item(item, options)
     line = design_line(item, design)
     tolerances = Tolerances(**request.tolerances.model_dump())
-    grid = np.linspace(item.band.start_hz, item.band.stop_hz, GRID_POINTS)
+    grid = np.linspace(item.band.start_hz, item.band.stop_hz, YIELD_GRID_POINTS)
     figures = monte_carlo(line, grid, item.spec_reflection, tolerances, request.trials, request.seed)
     p50, p90, p95, p99 = np.percentile(figures.worst_reflections, [50, 90, 95, 99])
     return YieldResult(
@@ -45,6 +45,6 @@ def yield_analysis(request: YieldRequest, options: DesignOptions | None = None) 
         nominal_max_reflection=figures.nominal_worst,
         worst_max_reflection=float(np.max(figures.worst_reflections)),
         percentiles=Percentiles(p50=p50, p90=p90, p95=p95, p99=p99),
-        grid_points=GRID_POINTS,
+        grid_points=YIELD_GRID_POINTS,
         method=METHOD_NOTE,
     )

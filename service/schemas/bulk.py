@@ -7,11 +7,10 @@ from typing import Annotated, Any, Literal
 
 from pydantic import BaseModel, Field, model_validator
 
+from service.constants import DEFAULT_MAX_SWEEP_DESIGNS
 from service.schemas.common import StrictModel
 from service.schemas.errors import ErrorBody
 from service.schemas.results import PredictedFigures, ResponseCurve, SectionResult, VerifiedFigures
-
-DEFAULT_MAX_SWEEP_DESIGNS = 100_000
 
 
 class BatchRequest(StrictModel):

@@ -6,12 +6,12 @@ from typing import Annotated
 
 from pydantic import BaseModel, ConfigDict, Field, ValidationInfo, field_validator
 
+from service.constants import MAX_POINTS
+
 MIN_IMPEDANCE_OHM = 1e-3
 MAX_IMPEDANCE_OHM = 1e5
 MIN_FREQUENCY_HZ = 1.0
 MAX_FREQUENCY_HZ = 1e12
-MAX_POINTS = 10001
-DEFAULT_POINTS = 201
 
 ImpedanceOhm = Annotated[
     float,

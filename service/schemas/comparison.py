@@ -4,10 +4,9 @@ from __future__ import annotations
 
 from pydantic import BaseModel, Field
 
+from service.constants import DEFAULT_SEGMENTS, MAX_SECTIONS, MAX_SEGMENTS
 from service.schemas.results import TransformerDesign, VerifiedFigures
-from service.schemas.tapers import DEFAULT_SEGMENTS, MAX_SEGMENTS
 from service.schemas.transformers import MatchRequest
-from service.synthesis.multisection import MAX_SECTIONS
 
 
 class CompareRequest(MatchRequest):

@@ -8,9 +8,10 @@ from typing import Annotated, Literal
 import numpy as np
 from pydantic import Field, field_validator, model_validator
 
+from service.constants import MAX_POINTS
 from service.formats.touchstone import TouchstoneError, read_one_port
 from service.physics.loads import CircuitLoad, FixedLoad, LoadModel, TabulatedLoad
-from service.schemas.common import MAX_IMPEDANCE_OHM, MAX_POINTS, FrequencyHz, ImpedanceOhm, StrictModel
+from service.schemas.common import MAX_IMPEDANCE_OHM, FrequencyHz, ImpedanceOhm, StrictModel
 
 MAX_TOUCHSTONE_CHARS = 2_000_000
 Reactance = Annotated[float, Field(ge=-MAX_IMPEDANCE_OHM, le=MAX_IMPEDANCE_OHM, description="Reactance in ohm.")]

@@ -6,10 +6,8 @@ from typing import Literal
 
 from pydantic import Field
 
+from service.constants import DEFAULT_SEGMENTS, MAX_SEGMENTS
 from service.schemas.transformers import MatchRequest
-
-MAX_SEGMENTS = 1024
-DEFAULT_SEGMENTS = 64
 
 
 class TaperRequest(MatchRequest):

@@ -6,11 +6,11 @@ from typing import Annotated
 
 from pydantic import BaseModel, Field
 
+from service.constants import MAX_TRIALS
 from service.schemas.common import StrictModel
 from service.schemas.items import DesignItem
 from service.schemas.results import TransformerDesign
 
-MAX_TRIALS = 20000
 Sigma = Annotated[float, Field(ge=0.0, le=0.01, description="One standard deviation, in metres.")]
 
 

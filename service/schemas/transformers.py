@@ -6,9 +6,9 @@ from typing import Literal
 
 from pydantic import Field, model_validator
 
+from service.constants import DEFAULT_POINTS, MAX_SECTIONS
 from service.physics.media import IdealLine, Medium
 from service.schemas.common import (
-    DEFAULT_POINTS,
     Band,
     ImpedanceOhm,
     MaxReflection,
@@ -18,7 +18,6 @@ from service.schemas.common import (
 )
 from service.schemas.loads import Load
 from service.schemas.media import MediumSpec
-from service.synthesis.multisection import MAX_SECTIONS
 
 DEFAULT_SPEC_REFLECTION = 0.1  # 20 dB return loss, used when a request states no spec
 

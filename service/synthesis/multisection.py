@@ -17,10 +17,10 @@ from dataclasses import dataclass
 import numpy as np
 from scipy.special import comb
 
+from service.constants import MAX_SECTIONS
 from service.synthesis.stepped_design import SteppedDesign, fraction_from_edge_angle, load_reflection
 from service.synthesis.theory import SMALL_REFLECTION, Theory
 
-MAX_SECTIONS = 32
 MAX_SCALE = 1e100
 FULL_BAND_FRACTION = 2.0  # the whole period 0 .. 2 f0 of a commensurate line
 

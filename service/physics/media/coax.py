@@ -7,9 +7,10 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
-from service.analysis.network import SPEED_OF_LIGHT_M_PER_S as C0
+from service.constants import ETA_0_OHM
+from service.constants import SPEED_OF_LIGHT_M_PER_S as C0
 from service.physics.media.base import LineParameters, RealizationError
-from service.physics.media.conductors import ETA_0, LineLosses
+from service.physics.media.conductors import LineLosses
 
 
 @dataclass(frozen=True)
@@ -29,13 +30,15 @@ class CoaxLine(LineLosses):
     def impedance(self, inner_diameter_m: np.ndarray) -> np.ndarray:
         """Z of each inner diameter."""
         return (
-            ETA_0 / (2.0 * math.pi * np.sqrt(self.eps_r)) * np.log(self.outer_diameter_m / np.asarray(inner_diameter_m))
+            ETA_0_OHM
+            / (2.0 * math.pi * np.sqrt(self.eps_r))
+            * np.log(self.outer_diameter_m / np.asarray(inner_diameter_m))
         )
 
     def parameters(self, geometry: np.ndarray, frequency_hz: np.ndarray) -> LineParameters:
         d = np.asarray(geometry)
         # Pozar, Microwave Engineering, ch. 2: alpha_c = Rs (1/a + 1/b) / (2 eta ln(b/a)), radii a and b.
-        eta = ETA_0 / np.sqrt(self.eps_r)
+        eta = ETA_0_OHM / np.sqrt(self.eps_r)
         radii_term = 2.0 / d + 2.0 / self.outer_diameter_m
         per_resistance = radii_term / (2.0 * eta * np.log(self.outer_diameter_m / d))
         return self.tem_parameters(
@@ -44,7 +47,7 @@ class CoaxLine(LineLosses):
 
     def geometry_for(self, impedance_ohm: np.ndarray, frequency_hz: float) -> np.ndarray:
         z = np.atleast_1d(np.asarray(impedance_ohm, dtype=float))
-        ratio = np.exp(z * 2.0 * math.pi * np.sqrt(self.eps_r) / ETA_0)
+        ratio = np.exp(z * 2.0 * math.pi * np.sqrt(self.eps_r) / ETA_0_OHM)
         if np.any(ratio > 1e6):
             raise RealizationError(
                 f"{float(np.max(z)):.4g} ohm needs an inner conductor too thin to build in this coax"

@@ -7,21 +7,18 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from service.analysis.network import SPEED_OF_LIGHT_M_PER_S
+from service.constants import MU_0_H_PER_M, SPEED_OF_LIGHT_M_PER_S
 from service.physics.media.base import LineParameters
-
-MU_0 = 4e-7 * np.pi  # H/m (the SI value to the precision that matters here)
-ETA_0 = 376.730313668  # ohm, impedance of free space
 
 
 def surface_resistance_ohm(frequency_hz: np.ndarray, conductivity_s_per_m: float) -> np.ndarray:
     """Rs = sqrt(omega mu0 / (2 sigma))."""
-    return np.sqrt(np.pi * np.asarray(frequency_hz) * MU_0 / conductivity_s_per_m)
+    return np.sqrt(np.pi * np.asarray(frequency_hz) * MU_0_H_PER_M / conductivity_s_per_m)
 
 
 def roughness_factor(frequency_hz: np.ndarray, conductivity_s_per_m: float, roughness_m: float) -> np.ndarray:
     """Hammerstad's roughness correction 1 + (2/pi) atan(1.4 (Delta / skin depth)^2)."""
-    skin_depth = 1.0 / np.sqrt(np.pi * np.asarray(frequency_hz) * MU_0 * conductivity_s_per_m)
+    skin_depth = 1.0 / np.sqrt(np.pi * np.asarray(frequency_hz) * MU_0_H_PER_M * conductivity_s_per_m)
     return 1.0 + (2.0 / np.pi) * np.arctan(1.4 * (roughness_m / skin_depth) ** 2)
 
 

@@ -12,9 +12,10 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
-from service.analysis.network import SPEED_OF_LIGHT_M_PER_S as C0
+from service.constants import ETA_0_OHM
+from service.constants import SPEED_OF_LIGHT_M_PER_S as C0
 from service.physics.media.base import LineParameters, invert_monotone
-from service.physics.media.conductors import ETA_0, LineLosses
+from service.physics.media.conductors import LineLosses
 
 HJ_U_RANGE = (0.01, 100.0)
 KJ_U_RANGE = (0.1, 100.0)
@@ -25,7 +26,7 @@ KJ_FN_MAX_GHZ_MM = 25.0
 def _z_air(u: np.ndarray) -> np.ndarray:
     """Impedance of the zero-thickness strip in air (Hammerstad-Jensen)."""
     f = 6.0 + (2.0 * math.pi - 6.0) * np.exp(-((30.666 / u) ** 0.7528))
-    return ETA_0 / (2.0 * math.pi) * np.log(f / u + np.sqrt(1.0 + 4.0 / (u * u)))
+    return ETA_0_OHM / (2.0 * math.pi) * np.log(f / u + np.sqrt(1.0 + 4.0 / (u * u)))
 
 
 def _eps_eff_zero_thickness(u: np.ndarray, eps_r: float) -> np.ndarray:

@@ -13,7 +13,7 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
-from service.analysis.network import SPEED_OF_LIGHT_M_PER_S as C0
+from service.constants import SPEED_OF_LIGHT_M_PER_S as C0
 from service.physics.media.base import LineParameters, invert_monotone
 from service.physics.media.conductors import LineLosses
 
