@@ -1,4 +1,18 @@
-"""Turn every failure into the API's one error shape (see schemas/errors.py)."""
+"""Every error type of the service, and the handlers that turn each into the one error shape.
+
+Which error becomes which answer (all in the shape of schemas/errors.py):
+
+    RequestValidationError (pydantic, at the schema)  -> 422 "invalid request", one problem per field
+    UnmeetableRequestError (valid, but cannot be met)  -> 422 "request cannot be met"
+      InvalidFieldError (a field unreadable past the schema, e.g. Touchstone text)
+                                                       -> 422 "invalid request"
+    HTTPException 400 / 404 / 405 / 413 (starlette)    -> that status (413: body over the size limit)
+    401 (missing or wrong API key)                     -> answered by api/middleware.py in the same shape
+    any other Exception (a bug)                        -> 500 "internal error", logged; no input should reach it
+
+Errors raised by the layers below (synthesis.InfeasibleDesignError, physics.media.RealizationError)
+are turned into UnmeetableRequestError by the pipeline, which knows the field they concern.
+"""
 
 from __future__ import annotations
 
@@ -24,6 +38,15 @@ class UnmeetableRequestError(Exception):
         super().__init__(f"{field}: {message}")
         self.field = field
         self.message = message
+
+    title = "request cannot be met"
+
+
+class InvalidFieldError(UnmeetableRequestError):
+    """A field the schema accepted whose content turns out unreadable (a Touchstone text): a 422 like
+    any invalid input."""
+
+    title = "invalid request"
 
 
 UNION_TAGS = frozenset({"quarter-wave", "binomial", "chebyshev", "taper", "ideal", "microstrip", "stripline", "coax"})
@@ -86,7 +109,7 @@ def install_error_handlers(app: FastAPI) -> None:
     @app.exception_handler(UnmeetableRequestError)
     async def _unmeetable(_: Request, exc: UnmeetableRequestError) -> JSONResponse:
         problem = Problem(field=exc.field, message=exc.message)
-        return error_response(422, "request cannot be met", [problem])
+        return error_response(422, exc.title, [problem])
 
     @app.exception_handler(HTTPException)
     async def _http(_: Request, exc: HTTPException) -> JSONResponse:

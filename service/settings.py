@@ -1,5 +1,7 @@
 """Runtime settings, read once from environment variables with the STEPLINE_ prefix.
 
+A leaf of the project: it imports only constants, so any layer may read settings without a cycle.
+
 Each field `name` is read from STEPLINE_<NAME>; lists are comma-separated. Every field has a safe
 default for a lab bench.
 """
@@ -12,7 +14,6 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 from service.constants import DEFAULT_MAX_SWEEP_DESIGNS, DEFAULT_MIN_FEATURE_M, MAX_POINTS, MAX_SEGMENTS, MAX_TRIALS
-from service.pipeline.target import DesignOptions
 
 PROJECT_ROOT = Path(__file__).resolve().parent.parent
 
@@ -34,9 +35,6 @@ class Settings:
     max_sweep_designs: int = DEFAULT_MAX_SWEEP_DESIGNS
     compute_budget_s: float = 20.0  # estimated compute one request may take, in seconds
 
-    def design_options(self) -> DesignOptions:
-        """The settings the designer needs."""
-        return DesignOptions(min_feature_m=self.min_feature_m)
 
     @classmethod
     def from_env(cls, environ: dict[str, str] | None = None) -> Settings:

@@ -10,7 +10,7 @@ from fastapi.responses import Response, StreamingResponse
 from service.api.delivery import json_response
 from service.api.documented import error_responses
 from service.api.examples import request_examples
-from service.api.limits import check_batch, check_sweep
+from service.api.limits import admit_batch, admit_sizes, admit_sweep, design_options
 from service.api.scheduling import run_sized
 from service.formats.csv_table import sweep_csv_lines
 from service.pipeline.sweeps import design_items, sweep_results, sweep_size, sweep_worst_item
@@ -22,7 +22,10 @@ NDJSON_TYPE = "application/x-ndjson"
 
 def build_router(settings: Settings) -> APIRouter:
     """The /v1/batch and /v1/sweeps routes."""
-    options = settings.design_options()
+    options = design_options(settings)
+
+    def admit(item: dict) -> None:
+        admit_sizes(item, settings)
     router = APIRouter(prefix="/v1", tags=["bulk"], responses=error_responses())
     batch_examples = request_examples(settings.examples_dir, "batch")
     sweep_examples = request_examples(settings.examples_dir, "sweeps")
@@ -30,10 +33,10 @@ def build_router(settings: Settings) -> APIRouter:
     @router.post("/batch", response_model=BatchResult, summary="Many designs in one request")
     async def batch(request: Annotated[BatchRequest, Body(openapi_examples=batch_examples)]) -> Response:
         """Each item is validated and designed on its own; results come back in order, errors at their index."""
-        seconds = check_batch(request.requests, settings)
+        seconds = admit_batch(request.requests, settings)
 
         def work() -> BatchResult:
-            return BatchResult(results=design_items(request.requests, request.include_curves, options, settings))
+            return BatchResult(results=design_items(request.requests, request.include_curves, options, admit))
 
         return json_response(await run_sized(work, seconds))
 
@@ -46,20 +49,20 @@ def build_router(settings: Settings) -> APIRouter:
     def sweep(request: Annotated[SweepRequest, Body(openapi_examples=sweep_examples)]) -> SweepResult | Response:
         """Expand the grid on the server and design every point, as JSON, CSV or streamed NDJSON."""
         total = sweep_size(request)
-        check_sweep(total, sweep_worst_item(request), settings)
+        admit_sweep(total, sweep_worst_item(request), settings)
         parameters = list(request.vary)
         if request.output == "json":
             return SweepResult(
-                total=total, parameters=parameters, results=list(sweep_results(request, options, settings))
+                total=total, parameters=parameters, results=list(sweep_results(request, options, admit))
             )
         if request.output == "csv":
-            lines = sweep_csv_lines(parameters, sweep_results(request, options, settings))
+            lines = sweep_csv_lines(parameters, sweep_results(request, options, admit))
             return StreamingResponse(lines, media_type="text/csv")
         return StreamingResponse(_ndjson(total, parameters, request), media_type=NDJSON_TYPE)
 
     def _ndjson(total: int, parameters: list[str], request: SweepRequest) -> Iterator[str]:
         yield json.dumps({"total": total, "parameters": parameters}) + "\n"
-        for result in sweep_results(request, options, settings):
+        for result in sweep_results(request, options, admit):
             yield result.model_dump_json(exclude_none=True) + "\n"
 
     return router

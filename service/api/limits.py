@@ -1,4 +1,4 @@
-"""Size limits and the per-request compute budget, checked before any work starts.
+"""Admission: size limits and the per-request compute budget, applied to a raw body before any work.
 
 The compute estimate is a simple cost model calibrated on this project's benchmark machine: a
 fixed cost per design, plus the cascade's cost per line section and frequency, with factors for
@@ -14,6 +14,7 @@ from service.analysis.worst_case import MAX_CHECK_POINTS, MIN_CHECK_POINTS, PEAK
 from service.analysis.worst_case import REFINE_POINTS as VERIFY_REFINE_POINTS
 from service.constants import YIELD_GRID_POINTS
 from service.errors import UnmeetableRequestError
+from service.pipeline.options import DesignOptions
 from service.settings import Settings
 
 PER_DESIGN_S = 1.5e-3
@@ -61,7 +62,12 @@ def yield_seconds(design: dict[str, Any], trials: int) -> float:
     return design_seconds(design) + trials * trial
 
 
-def check_budget(seconds: float, settings: Settings, field: str) -> None:
+def design_options(settings: Settings) -> DesignOptions:
+    """The operator settings the pipeline needs."""
+    return DesignOptions(min_feature_m=settings.min_feature_m)
+
+
+def admit_budget(seconds: float, settings: Settings, field: str) -> None:
     """Refuse a request whose estimated compute exceeds the per-request budget."""
     if seconds > settings.compute_budget_s:
         raise UnmeetableRequestError(
@@ -71,7 +77,7 @@ def check_budget(seconds: float, settings: Settings, field: str) -> None:
         )
 
 
-def check_sizes(item: dict[str, Any], settings: Settings, prefix: str = "") -> None:
+def admit_sizes(item: dict[str, Any], settings: Settings, prefix: str = "") -> None:
     """Refuse curve points, taper segments or trials beyond the operator's limits."""
     for name, limit in (("points", settings.max_points), ("segments", settings.max_segments)):
         value = item.get(name)
@@ -79,35 +85,35 @@ def check_sizes(item: dict[str, Any], settings: Settings, prefix: str = "") -> N
             raise UnmeetableRequestError(f"{prefix}{name}", f"at most {limit} allowed on this server; got {value}")
 
 
-def check_design(item: dict[str, Any], settings: Settings, count: int = 1) -> float:
+def admit_design(item: dict[str, Any], settings: Settings, count: int = 1) -> float:
     """Sizes and budget of a request that makes `count` designs like `item`; its estimated seconds."""
-    check_sizes(item, settings)
+    admit_sizes(item, settings)
     seconds = count * design_seconds(item)
-    check_budget(seconds, settings, "body")
+    admit_budget(seconds, settings, "body")
     return seconds
 
 
-def check_yield(design: dict[str, Any], trials: int, settings: Settings) -> None:
+def admit_yield(design: dict[str, Any], trials: int, settings: Settings) -> None:
     """Sizes, trial count and budget of a yield analysis."""
-    check_sizes(design, settings, "design.")
+    admit_sizes(design, settings, "design.")
     if trials > settings.max_trials:
         raise UnmeetableRequestError("trials", f"at most {settings.max_trials} allowed on this server")
-    check_budget(yield_seconds(design, trials), settings, "trials")
+    admit_budget(yield_seconds(design, trials), settings, "trials")
 
 
-def check_batch(items: list[Any], settings: Settings) -> float:
+def admit_batch(items: list[Any], settings: Settings) -> float:
     """Item count and budget of a batch; its estimated seconds (items that are not objects cost nothing)."""
     if len(items) > settings.max_batch_items:
         raise UnmeetableRequestError(
             "requests", f"at most {settings.max_batch_items} items per batch; this one has {len(items)}"
         )
     seconds = sum(design_seconds(item) for item in items if isinstance(item, dict))
-    check_budget(seconds, settings, "requests")
+    admit_budget(seconds, settings, "requests")
     return seconds
 
 
-def check_sweep(total: int, worst_item: dict[str, Any], settings: Settings) -> None:
+def admit_sweep(total: int, worst_item: dict[str, Any], settings: Settings) -> None:
     """Grid size and budget of a sweep of `total` designs, none costlier than `worst_item`."""
     if total > settings.max_sweep_designs:
         raise UnmeetableRequestError("vary", f"the grid holds {total} designs; at most {settings.max_sweep_designs}")
-    check_budget(total * design_seconds(worst_item), settings, "vary")
+    admit_budget(total * design_seconds(worst_item), settings, "vary")

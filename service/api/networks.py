@@ -9,7 +9,7 @@ from service import pipeline
 from service.api.delivery import FormatQuery, deliver, export_responses, output_format
 from service.api.documented import error_responses
 from service.api.examples import request_examples
-from service.api.limits import check_design
+from service.api.limits import admit_design, design_options
 from service.api.scheduling import run_sized
 from service.schemas.networks import AnalyzeRequest
 from service.schemas.results import AnalysisResult
@@ -18,7 +18,7 @@ from service.settings import Settings
 
 def build_router(settings: Settings) -> APIRouter:
     """The /v1/networks routes."""
-    options = settings.design_options()
+    options = design_options(settings)
     router = APIRouter(prefix="/v1/networks", tags=["networks"], responses=error_responses())
     examples = request_examples(settings.examples_dir, "networks/analyze")
 
@@ -31,7 +31,7 @@ def build_router(settings: Settings) -> APIRouter:
         format: FormatQuery = None,
     ) -> Response:
         """Verify a list of sections (e.g. a design rounded to buildable impedances) by the exact cascade."""
-        seconds = check_design(request.model_dump() | {"sections": len(request.sections)}, settings)
+        seconds = admit_design(request.model_dump() | {"sections": len(request.sections)}, settings)
         result = await run_sized(lambda: pipeline.analyze(request, options), seconds)
         return deliver(request, result, output_format(format, http), "analysis")
 

@@ -8,7 +8,7 @@ from fastapi.responses import Response
 from service import pipeline
 from service.api.documented import error_responses
 from service.api.examples import request_examples
-from service.api.limits import check_design, check_yield
+from service.api.limits import admit_design, admit_yield, design_options
 from service.formats.svg import transformer_svg
 from service.schemas.items import DesignItem
 from service.schemas.tolerance import YieldRequest, YieldResult
@@ -19,7 +19,7 @@ SVG_TYPE = "image/svg+xml"
 
 def build_router(settings: Settings) -> APIRouter:
     """The /v1/drawings and /v1/yield routes."""
-    options = settings.design_options()
+    options = design_options(settings)
     router = APIRouter(prefix="/v1", tags=["realization"], responses=error_responses())
     drawing_examples = request_examples(settings.examples_dir, "drawings")
     yield_examples = request_examples(settings.examples_dir, "yield")
@@ -32,7 +32,7 @@ def build_router(settings: Settings) -> APIRouter:
     )
     def drawing(item: Annotated[DesignItem, Body(openapi_examples=drawing_examples)]) -> Response:
         """Design with the named method and draw it: strip steps from above, or the coax in cut-away."""
-        check_design(item.model_dump(), settings)
+        admit_design(item.model_dump(), settings)
         design = pipeline.design_item(item, options)
         outer = getattr(item.medium, "outer_diameter_m", None)
         title = f"Stepline {item.method} transformer, {design.medium}, {len(design.sections)} sections"
@@ -41,7 +41,7 @@ def build_router(settings: Settings) -> APIRouter:
     @router.post("/yield", response_model=YieldResult, summary="Monte Carlo yield under tolerances")
     def tolerance_yield(request: Annotated[YieldRequest, Body(openapi_examples=yield_examples)]) -> YieldResult:
         """Design, then perturb widths, etch, permittivity and height over seeded trials."""
-        check_yield(request.design.model_dump(), request.trials, settings)
+        admit_yield(request.design.model_dump(), request.trials, settings)
         return pipeline.yield_analysis(request, options)
 
     return router

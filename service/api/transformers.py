@@ -10,7 +10,7 @@ from service import pipeline
 from service.api.delivery import FormatQuery, deliver, export_responses, output_format
 from service.api.documented import error_responses
 from service.api.examples import request_examples
-from service.api.limits import check_design
+from service.api.limits import admit_design, design_options
 from service.api.scheduling import run_sized
 from service.schemas.comparison import CompareRequest, Comparison
 from service.schemas.results import TransformerDesign
@@ -55,7 +55,7 @@ DESIGN_ROUTES: list[tuple[str, type[MatchRequest], DesignFunction, str, str]] = 
 
 def build_router(settings: Settings) -> APIRouter:
     """The /v1/transformers routes, with their request examples."""
-    options = settings.design_options()
+    options = design_options(settings)
     router = APIRouter(prefix="/v1/transformers", tags=["transformers"], responses=error_responses())
 
     def add_design_route(path: str, model: type[MatchRequest], design: DesignFunction, summary: str, text: str) -> None:
@@ -64,7 +64,7 @@ def build_router(settings: Settings) -> APIRouter:
         async def endpoint(
             request: Annotated[model, Body(openapi_examples=examples)], http: Request, format: FormatQuery = None
         ) -> Response:
-            seconds = check_design(request.model_dump(), settings)
+            seconds = admit_design(request.model_dump(), settings)
             name = f"{request.profile}-taper" if path == "taper" else path
             result = await run_sized(lambda: design(request, options), seconds)
             return deliver(request, result, output_format(format, http), name)
@@ -88,7 +88,7 @@ def build_router(settings: Settings) -> APIRouter:
     @router.post("/compare", response_model=Comparison, summary="Every method side by side")
     def compare(request: Annotated[CompareRequest, Body(openapi_examples=compare_examples)]) -> Comparison:
         """All applicable methods and theories for one request, ranked for meeting the spec shortest."""
-        check_design(request.model_dump(), settings, count=8)
+        admit_design(request.model_dump(), settings, count=8)
         return pipeline.compare(request, options)
 
     return router

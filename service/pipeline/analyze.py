@@ -7,7 +7,10 @@ import numpy as np
 from service.analysis.section_tables import section_tables
 from service.analysis.worst_case import check
 from service.pipeline.messages import bode_fano_warnings, spec_warnings
-from service.pipeline.target import DesignOptions, checked_blocks, realize
+from service.pipeline.options import DesignOptions
+from service.pipeline.realize import realize
+from service.pipeline.request_models import load_model
+from service.pipeline.shared_blocks import checked_blocks
 from service.schemas.networks import AnalyzeRequest
 from service.schemas.results import AnalysisResult
 
@@ -23,7 +26,7 @@ def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> An
     impedances = np.array([s.impedance_ohm for s in request.sections])
     angles = np.array([np.deg2rad(s.electrical_length_deg or 0.0) for s in request.sections])
     references = np.array([s.reference_hz or center for s in request.sections])
-    line = realize(request, request.load.model(), impedances, angles, references)
+    line = realize(request, load_model(request.load), impedances, angles, references)
     given = np.array([s.length_m is not None for s in request.sections])
     if np.any(given):
         physical = np.array([s.length_m or 0.0 for s in request.sections])
@@ -32,6 +35,6 @@ def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> An
     verified, curve = check(line, band.start_hz, band.stop_hz, request.spec_reflection, request.points)
     table = section_tables([line], np.array([band.center_hz]))[0]
     blocks = checked_blocks(line, request, verified, curve, table, options)
-    warnings = [*blocks.pop("medium_notes"), *spec_warnings(verified)]
-    warnings += bode_fano_warnings(blocks["bode_fano"], request.spec_reflection)
-    return AnalysisResult(**blocks, warnings=warnings)
+    warnings = [*blocks.medium_notes, *spec_warnings(verified)]
+    warnings += bode_fano_warnings(blocks.bode_fano, request.spec_reflection)
+    return AnalysisResult(**blocks.fields, warnings=warnings)

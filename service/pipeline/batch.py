@@ -5,8 +5,8 @@ from __future__ import annotations
 
 from service.errors import UnmeetableRequestError
 from service.pipeline.items import Item, design_item
+from service.pipeline.options import DesignOptions
 from service.pipeline.stepped_flow import Plan, designed, jobs_for, plan_binomial, plan_chebyshev, plan_quarter_wave
-from service.pipeline.target import DesignOptions
 from service.pipeline.verify import finish_many
 from service.schemas.bulk import DesignSummary
 from service.schemas.items import BinomialItem, ChebyshevItem, QuarterWaveItem

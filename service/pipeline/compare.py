@@ -6,9 +6,9 @@ from collections.abc import Callable
 from typing import Any
 
 from service.errors import UnmeetableRequestError
+from service.pipeline.options import DesignOptions
 from service.pipeline.stepped_flow import binomial, chebyshev, quarter_wave
 from service.pipeline.taper_flow import tapered
-from service.pipeline.target import DesignOptions
 from service.schemas.comparison import Candidate, CompareRequest, Comparison, Excluded
 from service.schemas.results import TransformerDesign
 from service.schemas.tapers import TaperRequest

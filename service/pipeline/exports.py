@@ -7,17 +7,18 @@ import numpy as np
 from service.analysis import network
 from service.analysis.line_cascade import LineCascade
 from service.physics.loads import impedance_at
+from service.pipeline.request_models import load_model, medium_model
 from service.schemas.results import AnalysisResult
 from service.schemas.transformers import MatchRequest
 
 
 def design_line(request: MatchRequest, design: AnalysisResult) -> LineCascade:
     """The design's sections as a LineCascade (geometry and lengths as the response gives them)."""
-    medium = request.medium_model()
+    medium = medium_model(request)
     name = medium.geometry_name or "impedance_ohm"
     geometry = np.array([getattr(section, name) for section in design.sections])
     lengths = np.array([section.length_m for section in design.sections])
-    return LineCascade(request.source_ohm, request.load.model(), medium, geometry, lengths)
+    return LineCascade(request.source_ohm, load_model(request.load), medium, geometry, lengths)
 
 
 def two_port(request: MatchRequest, design: AnalysisResult) -> tuple[np.ndarray, np.ndarray, tuple[float, float]]:
@@ -27,7 +28,7 @@ def two_port(request: MatchRequest, design: AnalysisResult) -> tuple[np.ndarray,
     frequency-dependent load the file describes the transformer alone, not its match to the load.
     """
     frequencies = np.asarray(design.response.frequency_hz)
-    r1, r2 = request.source_ohm, impedance_at(request.load.model(), request.band.center_hz).real
+    r1, r2 = request.source_ohm, impedance_at(load_model(request.load), request.band.center_hz).real
     abcd = design_line(request, design).abcd(frequencies)
     s11, s21 = network.s_parameters(abcd, r1, r2)
     denominator = abcd.a * r2 + abcd.b + abcd.c * r1 * r2 + abcd.d * r1

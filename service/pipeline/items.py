@@ -2,9 +2,9 @@
 
 from __future__ import annotations
 
+from service.pipeline.options import DesignOptions
 from service.pipeline.stepped_flow import binomial, chebyshev, quarter_wave
 from service.pipeline.taper_flow import tapered
-from service.pipeline.target import DesignOptions
 from service.schemas.items import BinomialItem, ChebyshevItem, QuarterWaveItem, TaperItem
 from service.schemas.results import TransformerDesign
 

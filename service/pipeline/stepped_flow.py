@@ -8,7 +8,8 @@ from dataclasses import dataclass, replace
 from service import synthesis
 from service.constants import MAX_SECTIONS
 from service.errors import UnmeetableRequestError
-from service.pipeline.target import DesignOptions, Target, target_for
+from service.pipeline.options import DesignOptions
+from service.pipeline.target import Target, target_for
 from service.pipeline.verify import Job, finish_one
 from service.schemas.bulk import DesignSummary
 from service.schemas.results import TransformerDesign

@@ -5,22 +5,21 @@ from __future__ import annotations
 import copy
 import itertools
 import math
-from collections.abc import Iterator
+from collections.abc import Callable, Iterator
 from typing import Any
 
 import numpy as np
 from pydantic import TypeAdapter, ValidationError
 
-from service.api.limits import check_sizes
 from service.errors import UnmeetableRequestError, validation_problems
 from service.pipeline.batch import design_batch
-from service.pipeline.target import DesignOptions
+from service.pipeline.options import DesignOptions
 from service.schemas.bulk import DesignSummary, ItemResult, SweepRequest, ValueRange
 from service.schemas.errors import ErrorBody, Problem
 from service.schemas.items import DesignItem
 from service.schemas.results import TransformerDesign
-from service.settings import Settings
 
+Admission = Callable[[dict[str, Any]], None]  # refuses a raw item beyond the operator's limits (UnmeetableRequestError)
 ITEM_ADAPTER: TypeAdapter = TypeAdapter(DesignItem)
 CHUNK_ITEMS = 256
 
@@ -31,7 +30,7 @@ def summary(design: TransformerDesign | DesignSummary, include_curves: bool) -> 
 
 
 def design_items(
-    raw_items: list[Any], include_curves: bool, options: DesignOptions, settings: Settings, offset: int = 0
+    raw_items: list[Any], include_curves: bool, options: DesignOptions, admit: Admission, offset: int = 0
 ) -> list[ItemResult]:
     """Validate and design each raw item; errors stay with their item."""
     results: list[ItemResult | None] = [None] * len(raw_items)
@@ -39,7 +38,7 @@ def design_items(
     for position, raw in enumerate(raw_items):
         try:
             item = ITEM_ADAPTER.validate_python(raw)
-            check_sizes(raw, settings)
+            admit(raw)
             valid.append(item)
             positions.append(position)
         except ValidationError as exc:
@@ -58,7 +57,7 @@ def design_items(
 def _unmeetable(index: int, exc: UnmeetableRequestError) -> ItemResult:
     problem = Problem(field=exc.field, message=exc.message)
     return ItemResult(
-        index=index, status=422, error=ErrorBody(status=422, title="request cannot be met", problems=[problem])
+        index=index, status=422, error=ErrorBody(status=422, title=exc.title, problems=[problem])
     )
 
 
@@ -113,12 +112,12 @@ def sweep_worst_item(request: SweepRequest) -> dict[str, Any]:
     return item
 
 
-def sweep_results(request: SweepRequest, options: DesignOptions, settings: Settings) -> Iterator[ItemResult]:
+def sweep_results(request: SweepRequest, options: DesignOptions, admit: Admission) -> Iterator[ItemResult]:
     """Every design of the sweep, in order, computed a chunk at a time so memory stays flat."""
     grid = sweep_items(request)
     offset = 0
     while chunk := list(itertools.islice(grid, CHUNK_ITEMS)):
-        results = design_items([item for _, item in chunk], request.include_curves, options, settings, offset)
+        results = design_items([item for _, item in chunk], request.include_curves, options, admit, offset)
         for (parameters, _), result in zip(chunk, results, strict=True):
             yield result.model_copy(update={"parameters": parameters})
         offset += len(chunk)

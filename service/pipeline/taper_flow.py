@@ -6,7 +6,8 @@ import math
 
 from service.constants import SPEED_OF_LIGHT_M_PER_S
 from service.errors import UnmeetableRequestError
-from service.pipeline.target import DesignOptions, Target, target_for
+from service.pipeline.options import DesignOptions
+from service.pipeline.target import Target, target_for
 from service.pipeline.verify import finish
 from service.schemas.results import TransformerDesign
 from service.schemas.tapers import TaperRequest

@@ -22,8 +22,11 @@ from service.pipeline.messages import (
     departure_warnings,
     spec_warnings,
 )
+from service.pipeline.options import DesignOptions
+from service.pipeline.realize import line_for, quarter_wave_m
 from service.pipeline.refine import refine_minimax
-from service.pipeline.target import DesignOptions, Target, checked_blocks, line_for, quarter_wave_m
+from service.pipeline.shared_blocks import checked_blocks
+from service.pipeline.target import Target
 from service.schemas.bulk import DesignSummary
 from service.schemas.results import (
     PredictedFigures,
@@ -145,7 +148,7 @@ def _assemble(
     )
     blocks = checked_blocks(line, request, verified, curve, table, options)
     requested_fraction = (band.stop_hz - band.start_hz) / band.center_hz
-    warnings = [*synthesized.notes, *job.notes, *blocks.pop("medium_notes")]
+    warnings = [*synthesized.notes, *job.notes, *blocks.medium_notes]
     warnings += coverage_warnings(spec, requested_fraction, predicted)
     suggest_exact = theory == synthesis.SMALL_REFLECTION.name and job.method in THEORY_METHODS
     warnings += spec_warnings(verified, suggest_exact)
@@ -156,11 +159,11 @@ def _assemble(
             f"The {theory} prediction covers the transformer into the load's centre-frequency "
             f"resistance ({target.resistance_ohm:.6g} ohm) only; for this load rely on the verified figures."
         )
-    warnings += bode_fano_warnings(blocks["bode_fano"], spec)
+    warnings += bode_fano_warnings(blocks.bode_fano, spec)
     if target.rotation is not None:
         warnings.append(_rotation_note(request, target))
     fields = {"method": job.method, "theory": theory, "predicted": predicted, "refinement": refinement}
-    fields |= blocks | {"warnings": warnings}
+    fields |= blocks.fields | {"warnings": warnings}
     return DesignSummary.picked(fields, include_curve=False) if summary else TransformerDesign(**fields)
 
 

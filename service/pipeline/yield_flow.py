@@ -10,7 +10,8 @@ from service.errors import UnmeetableRequestError
 from service.physics.media import IdealLine
 from service.pipeline.exports import design_line
 from service.pipeline.items import design_item
-from service.pipeline.target import DesignOptions
+from service.pipeline.options import DesignOptions
+from service.pipeline.request_models import medium_model
 from service.schemas.tolerance import Percentiles, YieldRequest, YieldResult
 
 METHOD_NOTE = (
@@ -24,7 +25,7 @@ METHOD_NOTE = (
 def yield_analysis(request: YieldRequest, options: DesignOptions | None = None) -> YieldResult:
     """The nominal design and the statistics of its perturbed copies."""
     item = request.design
-    if isinstance(item.medium_model(), IdealLine):
+    if isinstance(medium_model(item), IdealLine):
         raise UnmeetableRequestError(
             "design.medium", "a yield analysis needs a physical medium (microstrip, stripline or coax)"
         )

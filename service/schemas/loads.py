@@ -5,12 +5,9 @@ from __future__ import annotations
 from itertools import pairwise
 from typing import Annotated, Literal
 
-import numpy as np
 from pydantic import Field, field_validator, model_validator
 
 from service.constants import MAX_POINTS
-from service.formats.touchstone import TouchstoneError, read_one_port
-from service.physics.loads import CircuitLoad, FixedLoad, LoadModel, TabulatedLoad
 from service.schemas.common import MAX_IMPEDANCE_OHM, FrequencyHz, ImpedanceOhm, StrictModel
 
 MAX_TOUCHSTONE_CHARS = 2_000_000
@@ -77,15 +74,6 @@ class Load(StrictModel):
             raise ValueError("frequencies must be strictly increasing")
         return points
 
-    @field_validator("touchstone")
-    @classmethod
-    def _readable(cls, text: str | None) -> str | None:
-        if text is not None:
-            try:
-                read_one_port(text)
-            except TouchstoneError as exc:
-                raise ValueError(str(exc)) from None
-        return text
 
     @model_validator(mode="after")
     def _one_form(self) -> Load:
@@ -97,17 +85,3 @@ class Load(StrictModel):
         if self.reactance_ohm != 0.0 and self.resistance_ohm is None:
             raise ValueError("reactance_ohm goes with resistance_ohm")
         return self
-
-    def model(self) -> LoadModel:
-        """The load as a function of frequency."""
-        if self.circuit is not None:
-            return CircuitLoad(self.circuit.kind, self.circuit.resistance_ohm, self.circuit.element_value)
-        if self.measured is not None:
-            return TabulatedLoad(
-                np.array([p.frequency_hz for p in self.measured]),
-                np.array([complex(p.resistance_ohm, p.reactance_ohm) for p in self.measured]),
-            )
-        if self.touchstone is not None:
-            data = read_one_port(self.touchstone)
-            return TabulatedLoad(data.frequency_hz, data.impedance_ohm)
-        return FixedLoad(self.resistance_ohm, self.reactance_ohm)

@@ -6,7 +6,6 @@ from typing import Annotated, Literal
 
 from pydantic import Field, model_validator
 
-from service.physics.media import CoaxLine, IdealLine, Medium, MicrostripLine, StriplineLine
 from service.schemas.common import StrictModel, VelocityFactor
 
 Permittivity = Annotated[float, Field(ge=1.0, le=128.0, description="Relative permittivity of the dielectric.")]
@@ -38,9 +37,6 @@ class IdealSpec(StrictModel):
     kind: Literal["ideal"]
     velocity_factor: VelocityFactor = 1.0
 
-    def model(self) -> Medium:
-        return IdealLine(self.velocity_factor)
-
 
 class MicrostripSpec(LossFields):
     """A microstrip on a substrate of height `height_m`; sections get a `width_m`."""
@@ -49,9 +45,6 @@ class MicrostripSpec(LossFields):
     eps_r: Permittivity
     height_m: Dimension
     thickness_m: Annotated[float, Field(ge=0.0, le=1e-3, description="Strip thickness in metres.")]
-
-    def model(self) -> Medium:
-        return MicrostripLine(self.eps_r, self.height_m, self.thickness_m, **self.losses())
 
 
 class StriplineSpec(LossFields):
@@ -68,9 +61,6 @@ class StriplineSpec(LossFields):
             raise ValueError("thickness_m must be less than half of ground_spacing_m")
         return self
 
-    def model(self) -> Medium:
-        return StriplineLine(self.eps_r, self.ground_spacing_m, self.thickness_m, **self.losses())
-
 
 class CoaxSpec(LossFields):
     """A coaxial line of outer (shield inner) diameter `outer_diameter_m`; sections get an `inner_diameter_m`."""
@@ -78,9 +68,6 @@ class CoaxSpec(LossFields):
     kind: Literal["coax"]
     eps_r: Permittivity
     outer_diameter_m: Dimension
-
-    def model(self) -> Medium:
-        return CoaxLine(self.eps_r, self.outer_diameter_m, **self.losses())
 
 
 MediumSpec = Annotated[IdealSpec | MicrostripSpec | StriplineSpec | CoaxSpec, Field(discriminator="kind")]

@@ -7,7 +7,6 @@ from typing import Literal
 from pydantic import Field, model_validator
 
 from service.constants import DEFAULT_POINTS, MAX_SECTIONS
-from service.physics.media import IdealLine, Medium
 from service.schemas.common import (
     Band,
     ImpedanceOhm,
@@ -54,9 +53,6 @@ class MatchRequest(StrictModel):
         """The reflection the design is judged against: the request's, or the default."""
         return DEFAULT_SPEC_REFLECTION if self.max_reflection is None else self.max_reflection
 
-    def medium_model(self) -> Medium:
-        """The medium the sections are realized in."""
-        return IdealLine(self.velocity_factor) if self.medium is None else self.medium.model()
 
 
 class TransformerRequest(MatchRequest):

@@ -1,0 +1,51 @@
+"""From section impedances and electrical lengths to a line in the request's medium."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from service.analysis.line_cascade import LineCascade
+from service.constants import SPEED_OF_LIGHT_M_PER_S
+from service.errors import UnmeetableRequestError
+from service.physics.loads import LoadModel
+from service.physics.media import RealizationError
+from service.pipeline.request_models import medium_model
+from service.pipeline.target import Target
+from service.schemas.transformers import MatchRequest
+
+
+def line_for(request: MatchRequest, target: Target, impedances_ohm: np.ndarray, angles_rad: np.ndarray) -> LineCascade:
+    """The synthesized sections, followed by the rotating section where the load needs one."""
+    if target.rotation is not None:
+        impedances_ohm = np.append(impedances_ohm, request.source_ohm)
+        angles_rad = np.append(angles_rad, target.rotation.electrical_length_rad)
+    return realize(request, target.load, impedances_ohm, angles_rad, request.band.center_hz)
+
+
+def realize(
+    request: MatchRequest,
+    load: LoadModel,
+    impedances_ohm: np.ndarray,
+    angles_rad: np.ndarray,
+    frequency_hz: float | np.ndarray,
+) -> LineCascade:
+    """Sections of these impedances and electrical lengths (each at its frequency) in the request's medium.
+
+    The geometry is found for the impedance at the band centre; each length makes the section's
+    electrical length right at its frequency, with the medium's effective permittivity there.
+    """
+    medium = medium_model(request)
+    try:
+        geometry = medium.geometry_for(impedances_ohm, request.band.center_hz)
+    except RealizationError as exc:
+        raise UnmeetableRequestError("medium", str(exc)) from exc
+    frequencies = np.asarray(frequency_hz, dtype=float) * np.ones(np.shape(geometry))
+    eps = medium.parameters(geometry, frequencies).eps_eff  # each section at its own frequency
+    lengths = np.asarray(angles_rad) * SPEED_OF_LIGHT_M_PER_S / (2.0 * np.pi * frequencies * np.sqrt(eps))
+    return LineCascade(request.source_ohm, load, medium, geometry, lengths)
+
+
+def quarter_wave_m(line: LineCascade, frequency_hz: float) -> float:
+    """A representative quarter wavelength on the line (at the mean permittivity of its sections)."""
+    eps = float(np.mean(line.eps_eff_at(frequency_hz)))
+    return SPEED_OF_LIGHT_M_PER_S / (4.0 * frequency_hz * np.sqrt(eps))
