@@ -35,7 +35,6 @@ class Settings:
     max_sweep_designs: int = DEFAULT_MAX_SWEEP_DESIGNS
     compute_budget_s: float = 20.0  # estimated compute one request may take, in seconds
 
-
     @classmethod
     def from_env(cls, environ: dict[str, str] | None = None) -> Settings:
         """Settings from STEPLINE_* environment variables, defaults elsewhere."""

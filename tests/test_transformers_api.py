@@ -80,10 +80,11 @@ def test_binomial_by_spec_is_the_smallest_count_the_cascade_accepts(client, base
 
 
 def test_chebyshev_by_sections_puts_the_ripple_edges_on_the_band(client, base_request):
-    # Small-reflection Chebyshev: ripple = |rho| / T_N(sec theta_edge), here N=3, theta_edge=45 deg:
+    # Small-reflection Chebyshev in the textbook form (Pozar, Microwave Engineering, sec. 5.7, from
+    # memory): ripple = |ln(ZL/Z0)| / 2 / T_N(sec theta_edge), here N=3, theta_edge=45 deg:
     # T_3(sqrt 2) = 4 (2 sqrt 2) - 3 sqrt 2 = 5 sqrt 2 (direct evaluation of the polynomial).
     result = post(client, "chebyshev", base_request | {"sections": 3})
-    assert result["predicted"]["max_reflection"] == pytest.approx((1 / 3) / (5 * math.sqrt(2)))
+    assert result["predicted"]["max_reflection"] == pytest.approx(math.log(2.0) / 2.0 / (5 * math.sqrt(2)))
     assert result["predicted"]["bandwidth_fraction"] == pytest.approx(1.0)
     curve = result["response"]["reflection_magnitude"]
     assert curve[0] == pytest.approx(curve[-1], rel=1e-9)
@@ -96,9 +97,16 @@ def test_chebyshev_with_sections_and_spec_reports_coverage(client, base_request)
     assert narrow["predicted"]["max_reflection"] > 0.02
     assert narrow["predicted"]["covers_band"] is False
     assert any("bandwidth only" in w for w in narrow["warnings"])
-    # Pozar Example 5.7 (from memory): N = 3, 0.05 ripple -> bandwidth about 101%.
+    # Pozar, Microwave Engineering, Example 5.7 (from memory): 50 -> 100 ohm, N = 3, ripple 0.05:
+    # theta_m = 44.7 deg, Gamma_0 = 0.0698, Gamma_1 = 0.1037 (half-log steps, worked from sec theta_m
+    # rounded to 1.408, hence the 1.5e-4 tolerance), bandwidth about 101%.
     wide = post(client, "chebyshev", base_request | {"sections": 3, "max_reflection": 0.05})
-    assert wide["predicted"]["bandwidth_fraction"] == pytest.approx(1.018, abs=0.002)
+    fraction = wide["predicted"]["bandwidth_fraction"]
+    assert fraction == pytest.approx(1.01, abs=0.005)
+    assert math.degrees((2.0 - fraction) * math.pi / 4.0) == pytest.approx(44.7, abs=0.05)
+    z = [50.0, *(s["impedance_ohm"] for s in wide["sections"]), 100.0]
+    half_logs = [0.5 * math.log(z[n + 1] / z[n]) for n in range(len(z) - 1)]
+    assert half_logs == pytest.approx([0.0698, 0.1037, 0.1037, 0.0698], abs=1.5e-4)
     assert wide["predicted"]["covers_band"] is True
 
 

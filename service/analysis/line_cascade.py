@@ -136,7 +136,7 @@ def stack_key(line: LineCascade) -> tuple | None:
     return line.geometry.size, line.medium
 
 
-def stacked_groups(lines: list[LineCascade]) -> list[list[int]]:
+def stackable_groups(lines: list[LineCascade]) -> list[list[int]]:
     """Indices of the lines, grouped so that each group can be stacked (or is a single line).
 
     Groups hold at most STACK_DESIGNS lines: a stack of a few hundred designs makes arrays too
@@ -155,6 +155,6 @@ def stacked_groups(lines: list[LineCascade]) -> list[list[int]]:
     return chunks + singles
 
 
-def stacked(lines: list[LineCascade], indices: list[int]) -> LineCascade:
+def group_as_line(lines: list[LineCascade], indices: list[int]) -> LineCascade:
     """The lines at these indices as one line: a stack, or the line itself when there is one."""
     return lines[indices[0]] if len(indices) == 1 else stack([lines[i] for i in indices])

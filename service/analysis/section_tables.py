@@ -7,7 +7,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.analysis import network
-from service.analysis.line_cascade import LineCascade, stacked_groups
+from service.analysis.line_cascade import LineCascade, stackable_groups
 from service.constants import SPEED_OF_LIGHT_M_PER_S
 from service.physics.loads import LoadModel, impedance_at
 from service.schemas.results import JunctionResult, SectionResult
@@ -31,7 +31,7 @@ def section_tables(lines: list[LineCascade], frequencies_hz: np.ndarray, junctio
     do not show them).
     """
     tables: list[SectionTable | None] = [None] * len(lines)
-    for indices in stacked_groups(lines):
+    for indices in stackable_groups(lines):
         members = [lines[i] for i in indices]
         medium = members[0].medium
         geometry, lengths = np.array([m.geometry for m in members]), np.array([m.lengths_m for m in members])

@@ -11,7 +11,7 @@ import math
 
 import numpy as np
 
-from service.analysis.line_cascade import LineCascade, stacked, stacked_groups
+from service.analysis.line_cascade import LineCascade, group_as_line, stackable_groups
 from service.schemas.results import ResponseCurve, VerifiedFigures
 
 MIN_CHECK_POINTS = 257
@@ -28,8 +28,7 @@ def check_grid_points(line: LineCascade, stop_hz: float | np.ndarray) -> int:
     """Enough frequencies to sample every lobe of the response several times.
 
     The response of a line of total electrical length Theta at the top of the band can turn
-    through at most about 2 Theta / pi lobes between DC and there. For a stacked line (one stop
-    frequency per design) the count is the one the longest design needs.
+    through at most about 2 Theta / pi lobes between DC and there.
     """
     return int(check_grid_counts(line, stop_hz).max())
 
@@ -138,10 +137,10 @@ def check_many(
     leave it out); the check itself is the same.
     """
     results: list[tuple[VerifiedFigures, ResponseCurve | None] | None] = [None] * len(lines)
-    for group in stacked_groups(lines):
-        line = stacked(lines, group)
+    for group in stackable_groups(lines):
+        line = group_as_line(lines, group)
         for (curve_points, grid_size), indices in _by_grid(line, group, stops, points).items():
-            part = line if len(indices) == len(group) else stacked(lines, indices)
+            part = line if len(indices) == len(group) else group_as_line(lines, indices)
             checked = _check_group(part, indices, starts, stops, specs, curve_points, grid_size, curves)
             for index, result in zip(indices, checked, strict=True):
                 results[index] = result
@@ -177,7 +176,7 @@ def _check_group(
     values, losses = line.response(grid, with_losses=line.medium.lossy)
     worst, where = (np.atleast_1d(a) for a in worst_reflections(line, grid, values))
     losses = None if losses is None else np.atleast_2d(losses)
-    every = (count - 1) // (points - 1)
+    curve_stride = (count - 1) // (points - 1)
     max_losses = [None] * len(indices) if losses is None else np.max(losses, axis=-1).tolist()
     worst_rows, where_rows, spec_rows = worst.tolist(), where.tolist(), specs[indices].tolist()
     return_loss_rows = return_loss_db(worst).tolist()
@@ -197,11 +196,11 @@ def _check_group(
     ]
     if not curves:
         return [(block, None) for block in figures]
-    curve_values = np.atleast_2d(values)[:, ::every]
+    curve_values = np.atleast_2d(values)[:, ::curve_stride]
     frequencies, magnitudes, return_losses = (
-        rows.tolist() for rows in (np.atleast_2d(grid)[:, ::every], curve_values, return_loss_db(curve_values))
+        rows.tolist() for rows in (np.atleast_2d(grid)[:, ::curve_stride], curve_values, return_loss_db(curve_values))
     )
-    curve_losses = [None] * len(indices) if losses is None else losses[:, ::every].tolist()
+    curve_losses = [None] * len(indices) if losses is None else losses[:, ::curve_stride].tolist()
     return [
         (
             block,

@@ -26,6 +26,7 @@ def build_router(settings: Settings) -> APIRouter:
 
     def admit(item: dict) -> None:
         admit_sizes(item, settings)
+
     router = APIRouter(prefix="/v1", tags=["bulk"], responses=error_responses())
     batch_examples = request_examples(settings.examples_dir, "batch")
     sweep_examples = request_examples(settings.examples_dir, "sweeps")
@@ -52,9 +53,7 @@ def build_router(settings: Settings) -> APIRouter:
         admit_sweep(total, sweep_worst_item(request), settings)
         parameters = list(request.vary)
         if request.output == "json":
-            return SweepResult(
-                total=total, parameters=parameters, results=list(sweep_results(request, options, admit))
-            )
+            return SweepResult(total=total, parameters=parameters, results=list(sweep_results(request, options, admit)))
         if request.output == "csv":
             lines = sweep_csv_lines(parameters, sweep_results(request, options, admit))
             return StreamingResponse(lines, media_type="text/csv")

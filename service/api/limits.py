@@ -10,9 +10,9 @@ from __future__ import annotations
 
 from typing import Any
 
-from service.analysis.worst_case import MAX_CHECK_POINTS, MIN_CHECK_POINTS, PEAKS_REFINED
+from service.analysis.worst_case import CHECK_POINTS_PER_LOBE, MAX_CHECK_POINTS, MIN_CHECK_POINTS, PEAKS_REFINED
 from service.analysis.worst_case import REFINE_POINTS as VERIFY_REFINE_POINTS
-from service.constants import YIELD_GRID_POINTS
+from service.constants import DEFAULT_POINTS, DEFAULT_SEGMENTS, YIELD_GRID_POINTS
 from service.errors import UnmeetableRequestError
 from service.pipeline.options import DesignOptions
 from service.settings import Settings
@@ -36,12 +36,16 @@ def design_seconds(item: dict[str, Any]) -> float:
     """Estimated compute of one design request given as a plain dict (valid or not)."""
     method = item.get("method")
     taper = method == "taper" or "profile" in item
-    sections = _number(item.get("segments"), 64) if taper else _number(item.get("sections"), GUESSED_SECTIONS)
+    sections = (
+        _number(item.get("segments"), DEFAULT_SEGMENTS) if taper else _number(item.get("sections"), GUESSED_SECTIONS)
+    )
     band = item.get("band") if isinstance(item.get("band"), dict) else {}
     start, stop = _number(band.get("start_hz"), 1.0), _number(band.get("stop_hz"), 3.0)
     ratio = 2.0 * stop / (start + stop) if start + stop > 0 else 2.0
-    grid = min(max(48.0 * (sections * ratio + 1.0) + 1.0, CHECK_POINTS_RANGE[0]), CHECK_POINTS_RANGE[1])
-    points = _number(item.get("points"), 201)
+    grid = min(
+        max(CHECK_POINTS_PER_LOBE * (sections * ratio + 1.0) + 1.0, CHECK_POINTS_RANGE[0]), CHECK_POINTS_RANGE[1]
+    )
+    points = _number(item.get("points"), DEFAULT_POINTS)
     medium = item.get("medium")
     factor = PHYSICAL_MEDIUM_FACTOR if isinstance(medium, dict) and medium.get("kind") != "ideal" else 1.0
     seconds = PER_DESIGN_S + PER_SECTION_POINT_S * sections * (grid + REFINE_POINTS + points) * factor

@@ -6,25 +6,30 @@ from __future__ import annotations
 from service.errors import UnmeetableRequestError
 from service.pipeline.items import Item, design_item
 from service.pipeline.options import DesignOptions
-from service.pipeline.stepped_flow import Plan, designed, jobs_for, plan_binomial, plan_chebyshev, plan_quarter_wave
-from service.pipeline.verify import finish_many
-from service.schemas.bulk import DesignSummary
+from service.pipeline.stepped_flow import (
+    SteppedRecipe,
+    binomial_recipe,
+    chebyshev_recipe,
+    design_to_spec,
+    pending_checks,
+    quarter_wave_recipe,
+)
+from service.pipeline.verify import DesignOutcome, verify_many
 from service.schemas.items import BinomialItem, ChebyshevItem, QuarterWaveItem
-from service.schemas.results import TransformerDesign
 
-PLANNERS = {QuarterWaveItem: plan_quarter_wave, BinomialItem: plan_binomial, ChebyshevItem: plan_chebyshev}
-
-Outcome = TransformerDesign | DesignSummary | UnmeetableRequestError
+PLANNERS = {QuarterWaveItem: quarter_wave_recipe, BinomialItem: binomial_recipe, ChebyshevItem: chebyshev_recipe}
 
 
-def design_batch(items: list[Item], options: DesignOptions | None = None, summaries: bool = False) -> list[Outcome]:
+def design_batch(
+    items: list[Item], options: DesignOptions | None = None, summaries: bool = False
+) -> list[DesignOutcome]:
     """The design (or the reason it cannot be made) of every item, in order.
 
     With `summaries`, stepped designs checked in the first pass come back as curve-less summaries
-    (see finish_many); designs that needed another pass, and tapers, come back whole.
+    (see verify_many); designs that needed another pass, and tapers, come back whole.
     """
-    outcomes: list[Outcome | None] = [None] * len(items)
-    planned: list[tuple[int, Plan]] = []
+    outcomes: list[DesignOutcome | None] = [None] * len(items)
+    planned: list[tuple[int, SteppedRecipe]] = []
     for index, item in enumerate(items):
         planner = PLANNERS.get(type(item))
         try:
@@ -34,26 +39,28 @@ def design_batch(items: list[Item], options: DesignOptions | None = None, summar
                 planned.append((index, planner(item)))
         except UnmeetableRequestError as exc:
             outcomes[index] = exc
-    for (index, _), outcome in zip(planned, design_plans([p for _, p in planned], options, summaries), strict=True):
+    for (index, _), outcome in zip(planned, design_recipes([p for _, p in planned], options, summaries), strict=True):
         outcomes[index] = outcome
     return outcomes
 
 
-def design_plans(plans: list[Plan], options: DesignOptions | None = None, summaries: bool = False) -> list[Outcome]:
-    """The design of every plan, their first exact checks run together; errors stay with their plan."""
-    outcomes: list[Outcome | None] = [None] * len(plans)
+def design_recipes(
+    recipes: list[SteppedRecipe], options: DesignOptions | None = None, summaries: bool = False
+) -> list[DesignOutcome]:
+    """The design of every recipe, their first exact checks run together; errors stay with their recipe."""
+    outcomes: list[DesignOutcome | None] = [None] * len(recipes)
     ready: list[int] = []
     counts: list[int] = []
-    for index, plan in enumerate(plans):
+    for index, recipe in enumerate(recipes):
         try:
-            counts.append(plan.theory_sections())
+            counts.append(recipe.theory_sections())
             ready.append(index)
         except UnmeetableRequestError as exc:
             outcomes[index] = exc
-    checked = finish_many(jobs_for([plans[i] for i in ready], counts), options, summaries)
+    checked = verify_many(pending_checks([recipes[i] for i in ready], counts), options, summaries)
     for index, first in zip(ready, checked, strict=True):
         try:
-            outcomes[index] = first if isinstance(first, Exception) else designed(plans[index], options, first)
+            outcomes[index] = first if isinstance(first, Exception) else design_to_spec(recipes[index], options, first)
         except UnmeetableRequestError as exc:  # a later pass with more sections that cannot be realized
             outcomes[index] = exc
     return outcomes

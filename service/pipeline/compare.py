@@ -5,6 +5,7 @@ from __future__ import annotations
 from collections.abc import Callable
 from typing import Any
 
+from service.constants import EXACT, SMALL_REFLECTION
 from service.errors import UnmeetableRequestError
 from service.pipeline.options import DesignOptions
 from service.pipeline.stepped_flow import binomial, chebyshev, quarter_wave
@@ -14,7 +15,7 @@ from service.schemas.results import TransformerDesign
 from service.schemas.tapers import TaperRequest
 from service.schemas.transformers import QuarterWaveRequest, TransformerRequest
 
-THEORY_NAMES = ("small-reflection", "exact")
+THEORY_NAMES = (SMALL_REFLECTION, EXACT)
 TAPER_PROFILES = ("klopfenstein", "exponential", "triangular")
 
 Run = tuple[str, str, str | None, Callable[[], TransformerDesign]]
@@ -55,7 +56,7 @@ def _runs(request: CompareRequest, options: DesignOptions | None) -> list[Run]:
     runs: list[Run] = []
     if request.sections in (None, 1):
         runs.append(
-            ("quarter-wave", "small-reflection", None, lambda: quarter_wave(QuarterWaveRequest(**common), options))
+            ("quarter-wave", SMALL_REFLECTION, None, lambda: quarter_wave(QuarterWaveRequest(**common), options))
         )
     for method, function in (("binomial", binomial), ("chebyshev", chebyshev)):
         for theory in THEORY_NAMES:
@@ -64,5 +65,5 @@ def _runs(request: CompareRequest, options: DesignOptions | None) -> list[Run]:
     if request.include_tapers:
         for profile in TAPER_PROFILES:
             taper = TaperRequest(**common, profile=profile, segments=request.taper_segments)
-            runs.append(("taper", "small-reflection", profile, lambda r=taper: tapered(r, options)))
+            runs.append(("taper", SMALL_REFLECTION, profile, lambda r=taper: tapered(r, options)))
     return runs

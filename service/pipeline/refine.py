@@ -53,8 +53,8 @@ def refine_minimax(line: LineCascade, start_hz: float, stop_hz: float, quarter_w
 
     start = np.concatenate((log_start, line.lengths_m / quarter_wave_m, [0.0]))
     start[-1] = float(np.max(line.reflection(grid) ** 2))
-    spread = np.log(GEOMETRY_FREEDOM)
-    bounds = [(z - spread, z + spread) for z in log_start]
+    log_freedom = np.log(GEOMETRY_FREEDOM)
+    bounds = [(z - log_freedom, z + log_freedom) for z in log_start]
     bounds += [(0.0, MAX_LENGTH_FACTOR)] * count + [(0.0, 1.0)]
     deadline = time.monotonic() + MAX_SECONDS
 

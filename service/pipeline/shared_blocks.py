@@ -38,7 +38,6 @@ def bode_fano_figures(load: LoadModel, request: MatchRequest, verified: Verified
     )
 
 
-
 def checked_blocks(
     line: LineCascade,
     request: MatchRequest,

@@ -10,7 +10,7 @@ from service.constants import MAX_SECTIONS
 from service.errors import UnmeetableRequestError
 from service.pipeline.options import DesignOptions
 from service.pipeline.target import Target, target_for
-from service.pipeline.verify import Job, finish_one
+from service.pipeline.verify import PendingCheck, verify_one
 from service.schemas.bulk import DesignSummary
 from service.schemas.results import TransformerDesign
 from service.schemas.transformers import MatchRequest, QuarterWaveRequest, TransformerRequest
@@ -20,11 +20,11 @@ Synthesized = synthesis.SteppedDesign | synthesis.WeightedDesign
 
 
 @dataclass(frozen=True)
-class Plan:
+class SteppedRecipe:
     """How to synthesize one stepped request at any section count.
 
-    Multisection plans synthesize a WeightedDesign: its impedances can then be found together
-    with other plans' (see jobs_for).
+    Multisection recipes synthesize a WeightedDesign: its impedances can then be found together
+    with other recipes' (see pending_checks).
     """
 
     method: str
@@ -32,36 +32,36 @@ class Plan:
     request: MatchRequest
     target: Target
     synthesize: Callable[[int], Synthesized]
-    count: Callable[[], int]
+    count_for_spec: Callable[[], int]
     sections: int | None  # as requested; None means: by spec
 
-    def job(self, sections: int, notes: tuple[str, ...] = ()) -> Job:
-        job = jobs_for([self], [sections])[0]
-        return replace(job, notes=notes) if notes else job
+    def pending_check(self, sections: int, notes: tuple[str, ...] = ()) -> PendingCheck:
+        pending = pending_checks([self], [sections])[0]
+        return replace(pending, notes=notes) if notes else pending
 
     def theory_sections(self) -> int:
         """The requested count, or the theory's smallest count for the spec."""
         if self.sections is not None:
             return self.sections
         try:
-            return self.count()
+            return self.count_for_spec()
         except InfeasibleDesignError as exc:
             raise UnmeetableRequestError("max_reflection", str(exc)) from exc
 
 
-def jobs_for(plans: list[Plan], counts: list[int]) -> list[Job]:
-    """The job of every plan at its count; multisection impedances synthesized in vectorized groups."""
-    synthesized = [plan.synthesize(count) for plan, count in zip(plans, counts, strict=True)]
+def pending_checks(recipes: list[SteppedRecipe], counts: list[int]) -> list[PendingCheck]:
+    """The pending check of every recipe at its count; multisection impedances synthesized in vectorized groups."""
+    synthesized = [recipe.synthesize(count) for recipe, count in zip(recipes, counts, strict=True)]
     weighted = [index for index, result in enumerate(synthesized) if isinstance(result, synthesis.WeightedDesign)]
     for index, stepped in zip(weighted, synthesis.stepped_many([synthesized[i] for i in weighted]), strict=True):
         synthesized[index] = stepped
     return [
-        Job(plan.method, plan.theory, plan.request, plan.target, stepped)
-        for plan, stepped in zip(plans, synthesized, strict=True)
+        PendingCheck(recipe.method, recipe.theory, recipe.request, recipe.target, stepped)
+        for recipe, stepped in zip(recipes, synthesized, strict=True)
     ]
 
 
-def plan_quarter_wave(request: QuarterWaveRequest) -> Plan:
+def quarter_wave_recipe(request: QuarterWaveRequest) -> SteppedRecipe:
     """One quarter-wave section."""
     target = target_for(request)
 
@@ -70,45 +70,45 @@ def plan_quarter_wave(request: QuarterWaveRequest) -> Plan:
             request.source_ohm, target.resistance_ohm, target.edge_angle_rad, request.spec_reflection
         )
 
-    return Plan("quarter-wave", synthesis.SMALL_REFLECTION.name, request, target, synthesize, lambda: 1, 1)
+    return SteppedRecipe("quarter-wave", synthesis.SMALL_REFLECTION.name, request, target, synthesize, lambda: 1, 1)
 
 
-def plan_binomial(request: TransformerRequest) -> Plan:
+def binomial_recipe(request: TransformerRequest) -> SteppedRecipe:
     """Maximally flat design, by section count or by spec."""
-    return _multisection_plan(
+    return _multisection_recipe(
         "binomial", request, synthesis.binomial, request.spec_reflection, synthesis.binomial_sections_for
     )
 
 
-def plan_chebyshev(request: TransformerRequest) -> Plan:
+def chebyshev_recipe(request: TransformerRequest) -> SteppedRecipe:
     """Equal-ripple design.
 
     Sections only: ripple set by the band. Spec only: smallest N, edges on the band limits.
     Both: that N and ripple, the band following from them.
     """
     ripple = request.max_reflection if request.sections is not None else None
-    return _multisection_plan("chebyshev", request, synthesis.chebyshev, ripple, synthesis.chebyshev_sections_for)
+    return _multisection_recipe("chebyshev", request, synthesis.chebyshev, ripple, synthesis.chebyshev_sections_for)
 
 
-def _multisection_plan(
+def _multisection_recipe(
     method: str,
     request: TransformerRequest,
     weigh: Callable[..., synthesis.WeightedDesign],
-    shape: float | None,
+    level: float | None,
     count: Callable[..., int],
-) -> Plan:
-    """A plan from a method's weighing, weigh(source, load, N, edge angle, shape, theory), and its
-    spec-driven count, count(source, load, edge angle, spec, theory); `shape` is the binomial's
+) -> SteppedRecipe:
+    """A recipe from a method's weighing, weigh(source, load, N, edge angle, level, theory), and its
+    spec-driven count, count(source, load, edge angle, spec, theory); `level` is the binomial's
     spec or the Chebyshev ripple."""
     target = target_for(request)
     theory = synthesis.THEORIES[request.theory]
     source, load, edge = request.source_ohm, target.resistance_ohm, target.edge_angle_rad
-    return Plan(
+    return SteppedRecipe(
         method,
         request.theory,
         request,
         target,
-        lambda sections: weigh(source, load, sections, edge, shape, theory),
+        lambda sections: weigh(source, load, sections, edge, level, theory),
         lambda: count(source, load, edge, request.spec_reflection, theory),
         request.sections,
     )
@@ -116,21 +116,21 @@ def _multisection_plan(
 
 def quarter_wave(request: QuarterWaveRequest, options: DesignOptions | None = None) -> TransformerDesign:
     """One quarter-wave section, checked."""
-    return designed(plan_quarter_wave(request), options)
+    return design_to_spec(quarter_wave_recipe(request), options)
 
 
 def binomial(request: TransformerRequest, options: DesignOptions | None = None) -> TransformerDesign:
     """A binomial design, checked."""
-    return designed(plan_binomial(request), options)
+    return design_to_spec(binomial_recipe(request), options)
 
 
 def chebyshev(request: TransformerRequest, options: DesignOptions | None = None) -> TransformerDesign:
     """A Chebyshev design, checked."""
-    return designed(plan_chebyshev(request), options)
+    return design_to_spec(chebyshev_recipe(request), options)
 
 
-def designed(
-    plan: Plan, options: DesignOptions | None, first: TransformerDesign | DesignSummary | None = None
+def design_to_spec(
+    recipe: SteppedRecipe, options: DesignOptions | None, first: TransformerDesign | DesignSummary | None = None
 ) -> TransformerDesign | DesignSummary:
     """The design at the requested N, or the smallest N that the exact cascade says meets the spec.
 
@@ -138,20 +138,22 @@ def designed(
     cascade misses the spec, N grows until it meets it (or the section limit is reached), and a
     warning says so. For loads that change with frequency the theory's N is kept and refined.
     """
-    theory_sections = plan.theory_sections()
-    result = first or _finished(plan, theory_sections, (), options)
-    if plan.sections is not None or plan.target.load.frequency_dependent:
+    theory_sections = recipe.theory_sections()
+    result = first or _verified_at(recipe, theory_sections, (), options)
+    if recipe.sections is not None or recipe.target.load.frequency_dependent:
         return result  # refined designs keep the theory's count: each refinement takes up to seconds
     sections = theory_sections
     while not result.verified.meets_spec and sections < MAX_SECTIONS:
         sections += 1
         note = (
-            f"The {plan.theory} theory asks for {theory_sections} sections; the exact cascade "
+            f"The {recipe.theory} theory asks for {theory_sections} sections; the exact cascade "
             f"needed {sections} to meet the spec."
         )
-        result = _finished(plan, sections, (note,), options)
+        result = _verified_at(recipe, sections, (note,), options)
     return result
 
 
-def _finished(plan: Plan, sections: int, notes: tuple[str, ...], options: DesignOptions | None) -> TransformerDesign:
-    return finish_one(plan.job(sections, notes), options)
+def _verified_at(
+    recipe: SteppedRecipe, sections: int, notes: tuple[str, ...], options: DesignOptions | None
+) -> TransformerDesign:
+    return verify_one(recipe.pending_check(sections, notes), options)

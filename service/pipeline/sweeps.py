@@ -56,9 +56,7 @@ def design_items(
 
 def _unmeetable(index: int, exc: UnmeetableRequestError) -> ItemResult:
     problem = Problem(field=exc.field, message=exc.message)
-    return ItemResult(
-        index=index, status=422, error=ErrorBody(status=422, title=exc.title, problems=[problem])
-    )
+    return ItemResult(index=index, status=422, error=ErrorBody(status=422, title=exc.title, problems=[problem]))
 
 
 def sweep_values(values: list[Any] | ValueRange) -> list[Any]:

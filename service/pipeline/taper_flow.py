@@ -4,11 +4,11 @@ from __future__ import annotations
 
 import math
 
-from service.constants import SPEED_OF_LIGHT_M_PER_S
+from service.constants import SMALL_REFLECTION, SPEED_OF_LIGHT_M_PER_S
 from service.errors import UnmeetableRequestError
 from service.pipeline.options import DesignOptions
 from service.pipeline.target import Target, target_for
-from service.pipeline.verify import finish
+from service.pipeline.verify import verify_design
 from service.schemas.results import TransformerDesign
 from service.schemas.tapers import TaperRequest
 from service.synthesis.multisection import InfeasibleDesignError
@@ -65,5 +65,5 @@ def _taper(
         )
     except InfeasibleDesignError as exc:
         raise UnmeetableRequestError("max_reflection", str(exc)) from exc
-    result = finish("taper", "small-reflection", request, target, synthesized, notes, options)
+    result = verify_design("taper", SMALL_REFLECTION, request, target, synthesized, notes, options)
     return result.model_copy(update={"profile": request.profile})

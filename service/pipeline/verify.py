@@ -1,6 +1,6 @@
 """Check synthesized designs by the exact cascade and assemble their responses.
 
-`finish_many` checks a whole list of designs at once: lines of equal shape are stacked so that
+`verify_many` checks a whole list of designs at once: lines of equal shape are stacked so that
 the cascade runs over designs x frequencies x sections in one go.
 """
 
@@ -41,7 +41,7 @@ THEORY_METHODS = ("binomial", "chebyshev")  # the methods a request may switch t
 
 
 @dataclass(frozen=True)
-class Job:
+class PendingCheck:
     """A synthesized design waiting for its exact check."""
 
     method: str
@@ -52,10 +52,10 @@ class Job:
     notes: tuple[str, ...] = ()
 
 
-Finished = TransformerDesign | DesignSummary | UnmeetableRequestError
+DesignOutcome = TransformerDesign | DesignSummary | UnmeetableRequestError
 
 
-def finish(
+def verify_design(
     method: str,
     theory: str,
     request: MatchRequest,
@@ -65,56 +65,63 @@ def finish(
     options: DesignOptions | None = None,
 ) -> TransformerDesign:
     """The verified response for one synthesized design."""
-    return finish_one(Job(method, theory, request, target, synthesized, tuple(notes or ())), options)
+    return verify_one(PendingCheck(method, theory, request, target, synthesized, tuple(notes or ())), options)
 
 
-def finish_one(job: Job, options: DesignOptions | None = None) -> TransformerDesign:
-    """The verified response for one job; raises UnmeetableRequestError where it cannot be realized."""
-    result = finish_many([job], options)[0]
+def verify_one(pending: PendingCheck, options: DesignOptions | None = None) -> TransformerDesign:
+    """The verified response for one pending check; raises UnmeetableRequestError where it cannot be realized."""
+    result = verify_many([pending], options)[0]
     if isinstance(result, UnmeetableRequestError):
         raise result
     return result
 
 
-def finish_many(jobs: list[Job], options: DesignOptions | None = None, summaries: bool = False) -> list[Finished]:
+def verify_many(
+    queue: list[PendingCheck], options: DesignOptions | None = None, summaries: bool = False
+) -> list[DesignOutcome]:
     """Verified responses for many designs (refined first for frequency-dependent loads).
 
     With `summaries`, each result is the table-sized DesignSummary without its curve, and the
-    parts only a full design shows (curve, junction table) are never built. A job whose sections
+    parts only a full design shows (curve, junction table) are never built. A pending check whose sections
     its medium cannot realize gets its UnmeetableRequestError in its place: it never sinks the rest.
     """
-    lines = [_line_or_error(job) for job in jobs]
+    lines = [_line_or_error(pending) for pending in queue]
     kept = [index for index, line in enumerate(lines) if isinstance(line, LineCascade)]
-    done = _finish_lines([jobs[i] for i in kept], [lines[i] for i in kept], options or DesignOptions(), summaries)
-    results: list[Finished] = list(lines)
+    done = _verify_lines([queue[i] for i in kept], [lines[i] for i in kept], options or DesignOptions(), summaries)
+    results: list[DesignOutcome] = list(lines)
     for index, result in zip(kept, done, strict=True):
         results[index] = result
     return results
 
 
-def _line_or_error(job: Job) -> LineCascade | UnmeetableRequestError:
+def _line_or_error(pending: PendingCheck) -> LineCascade | UnmeetableRequestError:
     try:
-        return line_for(job.request, job.target, job.synthesized.impedances_ohm, job.synthesized.electrical_length_rad)
+        return line_for(
+            pending.request,
+            pending.target,
+            pending.synthesized.impedances_ohm,
+            pending.synthesized.electrical_length_rad,
+        )
     except UnmeetableRequestError as exc:
         return exc
 
 
-def _finish_lines(
-    jobs: list[Job], lines: list[LineCascade], options: DesignOptions, summaries: bool
+def _verify_lines(
+    queue: list[PendingCheck], lines: list[LineCascade], options: DesignOptions, summaries: bool
 ) -> list[TransformerDesign | DesignSummary]:
-    starts = np.array([j.request.band.start_hz for j in jobs])
-    stops = np.array([j.request.band.stop_hz for j in jobs])
-    specs = np.array([j.request.spec_reflection for j in jobs])
-    points = np.array([j.request.points for j in jobs])
+    starts = np.array([j.request.band.start_hz for j in queue])
+    stops = np.array([j.request.band.stop_hz for j in queue])
+    specs = np.array([j.request.spec_reflection for j in queue])
+    points = np.array([j.request.points for j in queue])
     checked = []
     verified = check_many(lines, starts, stops, specs, points, curves=not summaries)
-    for job, line, (figures, curve) in zip(jobs, lines, verified, strict=True):
+    for pending, line, (figures, curve) in zip(queue, lines, verified, strict=True):
         refinement = None
-        if job.target.load.frequency_dependent:
-            line, refinement, curve = _refine(line, job.request, figures)
+        if pending.target.load.frequency_dependent:
+            line, refinement, curve = _refine(line, pending.request, figures)
             figures = refinement.after
-        checked.append((job, line, figures, refinement, curve))
-    centers = np.array([j.request.band.center_hz for j in jobs])
+        checked.append((pending, line, figures, refinement, curve))
+    centers = np.array([j.request.band.center_hz for j in queue])
     tables = section_tables([line for _, line, *_ in checked], centers, junctions=not summaries)
     return [_assemble(*parts, table, options, summaries) for parts, table in zip(checked, tables, strict=True)]
 
@@ -129,7 +136,7 @@ def _refine(
 
 
 def _assemble(
-    job: Job,
+    pending: PendingCheck,
     line: LineCascade,
     verified: VerifiedFigures,
     refinement: RefinementFigures | None,
@@ -138,7 +145,7 @@ def _assemble(
     options: DesignOptions,
     summary: bool,
 ) -> TransformerDesign | DesignSummary:
-    request, target, synthesized, theory = job.request, job.target, job.synthesized, job.theory
+    request, target, synthesized, theory = pending.request, pending.target, pending.synthesized, pending.theory
     band, spec = request.band, request.spec_reflection
     predicted = PredictedFigures(
         max_reflection=synthesized.predicted_max_reflection,
@@ -148,9 +155,9 @@ def _assemble(
     )
     blocks = checked_blocks(line, request, verified, curve, table, options)
     requested_fraction = (band.stop_hz - band.start_hz) / band.center_hz
-    warnings = [*synthesized.notes, *job.notes, *blocks.medium_notes]
+    warnings = [*synthesized.notes, *pending.notes, *blocks.medium_notes]
     warnings += coverage_warnings(spec, requested_fraction, predicted)
-    suggest_exact = theory == synthesis.SMALL_REFLECTION.name and job.method in THEORY_METHODS
+    suggest_exact = theory == synthesis.SMALL_REFLECTION.name and pending.method in THEORY_METHODS
     warnings += spec_warnings(verified, suggest_exact)
     if target.rotation is None and not target.load.frequency_dependent:
         warnings += departure_warnings(predicted, verified, theory, line.medium)
@@ -162,7 +169,7 @@ def _assemble(
     warnings += bode_fano_warnings(blocks.bode_fano, spec)
     if target.rotation is not None:
         warnings.append(_rotation_note(request, target))
-    fields = {"method": job.method, "theory": theory, "predicted": predicted, "refinement": refinement}
+    fields = {"method": pending.method, "theory": theory, "predicted": predicted, "refinement": refinement}
     fields |= blocks.fields | {"warnings": warnings}
     return DesignSummary.picked(fields, include_curve=False) if summary else TransformerDesign(**fields)
 

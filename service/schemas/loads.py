@@ -74,7 +74,6 @@ class Load(StrictModel):
             raise ValueError("frequencies must be strictly increasing")
         return points
 
-
     @model_validator(mode="after")
     def _one_form(self) -> Load:
         given = [

@@ -6,7 +6,7 @@ from typing import Literal
 
 from pydantic import Field, model_validator
 
-from service.constants import DEFAULT_POINTS, MAX_SECTIONS
+from service.constants import DEFAULT_POINTS, EXACT, MAX_SECTIONS, SMALL_REFLECTION
 from service.schemas.common import (
     Band,
     ImpedanceOhm,
@@ -20,7 +20,7 @@ from service.schemas.media import MediumSpec
 
 DEFAULT_SPEC_REFLECTION = 0.1  # 20 dB return loss, used when a request states no spec
 
-TheoryName = Literal["small-reflection", "exact"]
+TheoryName = Literal[SMALL_REFLECTION, EXACT]
 
 
 class MatchRequest(StrictModel):
@@ -54,7 +54,6 @@ class MatchRequest(StrictModel):
         return DEFAULT_SPEC_REFLECTION if self.max_reflection is None else self.max_reflection
 
 
-
 class TransformerRequest(MatchRequest):
     """Match `load` to a line of `source_ohm` over `band` with a multi-section transformer.
 
@@ -64,7 +63,7 @@ class TransformerRequest(MatchRequest):
 
     sections: int | None = Field(None, ge=1, le=MAX_SECTIONS, description="Number of quarter-wave sections.")
     theory: TheoryName = Field(
-        "small-reflection",
+        SMALL_REFLECTION,
         description=(
             "small-reflection: the classic approximate synthesis; exact: synthesis from the "
             "insertion-loss function of the commensurate cascade, which holds for any ratio."

@@ -99,13 +99,13 @@ def binomial(
     spec_reflection: float,
     theory: Theory = SMALL_REFLECTION,
 ) -> WeightedDesign:
-    """Binomial design: measure(|Gamma|) = measure(|rho|) |cos theta|^N.
+    """Binomial design: shaped(|Gamma|) = shaped(|rho|) |cos theta|^N, rho = (ZL - Z0) / (ZL + Z0).
 
     The predicted bandwidth is the band within the spec reflection.
     """
-    rho = theory.measure(abs(load_reflection(source_ohm, load_ohm)))
-    spec = theory.measure(spec_reflection)
-    predicted = theory.unmeasure(rho * abs(math.cos(edge_angle_rad)) ** sections)
+    rho = theory.shaped_from_reflection(abs(load_reflection(source_ohm, load_ohm)))
+    spec = theory.shaped_from_reflection(spec_reflection)
+    predicted = theory.reflection_from_shaped(rho * abs(math.cos(edge_angle_rad)) ** sections)
     if spec >= rho:
         fraction = FULL_BAND_FRACTION
     else:
@@ -122,8 +122,9 @@ def binomial_sections_for(
 ) -> int:
     """Smallest N whose binomial response stays within max_reflection over the band:
     cos^N(theta_edge) <= spec / rho, i.e. N >= ln(rho / spec) / -ln cos(theta_edge)."""
-    spread = -math.log(math.cos(edge_angle_rad))
-    return _smallest_count(source_ohm, load_ohm, max_reflection, theory, spread, math.log, "binomial")
+    growth_per_section = -math.log(math.cos(edge_angle_rad))
+    rho = theory.shaped_from_reflection(abs(load_reflection(source_ohm, load_ohm)))
+    return _smallest_count(rho, max_reflection, theory, growth_per_section, math.log, "binomial")
 
 
 @functools.lru_cache(maxsize=4096)
@@ -192,20 +193,25 @@ def chebyshev(
     ripple: float | None = None,
     theory: Theory = SMALL_REFLECTION,
 ) -> WeightedDesign:
-    """Chebyshev (equal ripple) design: measure(|Gamma|) = measure(|rho|) |T_N(scale cos theta)| / T_N(scale).
+    """Chebyshev (equal ripple) design: shaped(|Gamma|) = level |T_N(scale cos theta)| / T_N(scale).
+
+    `level` is the theory's load_level: for small-reflection theory |ln(ZL/Z0)|/2, the form its
+    logarithmic impedances sum to, so sec(theta_m) and the impedances agree (the textbook form).
 
     With no ripple the equal-ripple edges are put on the band limits, the lowest ripple N
     sections can give over the band. With a ripple the edges follow from it. The predicted
     bandwidth is the equal-ripple band.
     """
     rho_reflection = abs(load_reflection(source_ohm, load_ohm))
-    rho = theory.measure(rho_reflection)
+    rho = theory.load_level(source_ohm, load_ohm)
     notes: tuple[str, ...] = ()
     if ripple is None:
         scale = _bounded_scale(1.0 / math.cos(edge_angle_rad))
-    elif ripple < rho_reflection:
-        spread = math.acosh(rho / theory.measure(ripple)) / sections
-        scale = _bounded_scale(math.cosh(spread) if spread < math.acosh(MAX_SCALE) else MAX_SCALE)
+    elif theory.shaped_from_reflection(ripple) < rho:
+        growth_per_section = math.acosh(rho / theory.shaped_from_reflection(ripple)) / sections
+        scale = _bounded_scale(
+            math.cosh(growth_per_section) if growth_per_section < math.acosh(MAX_SCALE) else MAX_SCALE
+        )
     else:
         scale = 1.0
         notes = (
@@ -214,7 +220,9 @@ def chebyshev(
             "the load's own reflection.",
         )
     weights = chebyshev_weights(sections, scale)
-    predicted = theory.unmeasure(rho * chebyshev_peak_ratio(sections, scale * math.cos(edge_angle_rad), scale))
+    predicted = theory.reflection_from_shaped(
+        rho * chebyshev_peak_ratio(sections, scale * math.cos(edge_angle_rad), scale)
+    )
     fraction = fraction_from_edge_angle(math.acos(1.0 / scale))
     return WeightedDesign(source_ohm, load_ohm, weights, theory, predicted, fraction, notes)
 
@@ -228,27 +236,27 @@ def chebyshev_sections_for(
 ) -> int:
     """Smallest N whose equal-ripple response over the band stays within max_reflection:
     T_N(sec theta_edge) >= rho / spec, i.e. N >= acosh(rho / spec) / acosh(sec theta_edge)."""
-    spread = math.acosh(1.0 / math.cos(edge_angle_rad))
-    return _smallest_count(source_ohm, load_ohm, max_reflection, theory, spread, math.acosh, "Chebyshev")
+    growth_per_section = math.acosh(1.0 / math.cos(edge_angle_rad))
+    rho = theory.load_level(source_ohm, load_ohm)
+    return _smallest_count(rho, max_reflection, theory, growth_per_section, math.acosh, "Chebyshev")
 
 
 def _smallest_count(
-    source_ohm: float,
-    load_ohm: float,
+    rho: float,
     max_reflection: float,
     theory: Theory,
-    spread: float,
+    growth_per_section: float,
     growth: Callable[[float], float],
     method: str,
 ) -> int:
-    """N >= growth(rho / spec) / spread, in the theory's measure of reflection; 1 if the load already meets it."""
-    rho = theory.measure(abs(load_reflection(source_ohm, load_ohm)))
-    spec = theory.measure(max_reflection)
+    """N >= growth(rho / spec) / growth_per_section, rho and spec in the theory's shaped measure;
+    1 if the load already meets the spec."""
+    spec = theory.shaped_from_reflection(max_reflection)
     if rho <= spec:
         return 1
-    if spread == 0.0:
+    if growth_per_section == 0.0:
         raise InfeasibleDesignError("the band reaches down to DC, where no stepped line can match")
-    return _at_least_one(growth(rho / spec) / spread, method)
+    return _at_least_one(growth(rho / spec) / growth_per_section, method)
 
 
 def _at_least_one(required: float, method: str) -> int:
