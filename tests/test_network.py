@@ -77,11 +77,10 @@ def test_quarter_wave_line_inverts_the_load():
     assert network.input_impedance(abcd, 40.0)[0] == pytest.approx(80.0**2 / 40.0, rel=1e-12)
 
 
-def test_junction_transmission_is_one_plus_reflection():
-    # Textbook result: Gamma = (Z1 - Z0)/(Z1 + Z0), T = 1 + Gamma = 2 Z1 / (Z1 + Z0).
-    gamma = network.junction_reflections(np.array([50.0, 75.0]))[0]
-    assert gamma == pytest.approx(25.0 / 125.0)
-    assert 1.0 + gamma == pytest.approx(2.0 * 75.0 / 125.0)
+def test_junction_reflection_is_the_step_formula():
+    # Textbook result: a step from Z0 to Z1 reflects Gamma = (Z1 - Z0)/(Z1 + Z0).
+    gammas = network.junction_reflections(np.array([50.0, 75.0, 20.0]))
+    assert gammas == pytest.approx([25.0 / 125.0, -55.0 / 95.0], rel=1e-15)
 
 
 @pytest.mark.parametrize("seed", range(3))

@@ -4,6 +4,7 @@ random invalid ones give 422."""
 import math
 
 import numpy as np
+import scipy.constants
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
@@ -35,18 +36,15 @@ def design_requests(draw):
 
 
 def independent_worst(result, body):
-    """The worst reflection on a dense grid, straight from service.analysis.network and the response's sections."""
+    """The worst reflection on a dense grid by the textbook input-impedance formula of a lossless
+    line, Zin = Z (ZL + jZ tan(beta l)) / (Z + jZL tan(beta l)) (Pozar, Microwave Engineering,
+    eq. 2.44), applied section by section from the load: none of the project's cascade code."""
     f = np.linspace(body["band"]["start_hz"], body["band"]["stop_hz"], 20001)
-    z = np.array([s["impedance_ohm"] for s in result["sections"]])
-    lengths = np.array([s["length_m"] for s in result["sections"]])
-    abcd = network.cascade(z, network.electrical_length_rad(lengths, f, 1.0))
-    return float(
-        np.max(
-            np.abs(
-                network.reflection(network.input_impedance(abcd, body["load"]["resistance_ohm"]), body["source_ohm"])
-            )
-        )
-    )
+    impedance = np.full(f.size, float(body["load"]["resistance_ohm"]), dtype=complex)
+    for section in reversed(result["sections"]):
+        z, tangent = section["impedance_ohm"], np.tan(2 * np.pi * f * section["length_m"] / scipy.constants.c)
+        impedance = z * (impedance + 1j * z * tangent) / (z + 1j * impedance * tangent)
+    return float(np.max(np.abs((impedance - body["source_ohm"]) / (impedance + body["source_ohm"]))))
 
 
 @PROPERTY_SETTINGS
@@ -66,15 +64,20 @@ def test_random_designs_are_consistent_and_truthful(client, request):
     assert np.all(steps * np.sign(load - source) >= -1e-9 * max(chain))
     # Symmetric where theory says so (binomial and Chebyshev, both theories): Z_n Z_{N+1-n} = Z0 ZL.
     assert np.allclose(np.array(z) * np.array(z[::-1]), source * load, rtol=1e-6)
-    # Truthful: meets_spec says what the figure says, and the figure is the cascade's.
-    assert verified["meets_spec"] == (verified["max_reflection"] <= verified["spec_max_reflection"] * (1 + 1e-9))
+    # Truthful: meets_spec says what the figure says (away from a tie), and the figure is the cascade's.
+    worst, spec = verified["max_reflection"], verified["spec_max_reflection"]
+    if abs(worst - spec) > 1e-9 * spec:
+        assert verified["meets_spec"] == (worst < spec)
     dense = independent_worst(result, body)
     assert verified["max_reflection"] >= dense * (1 - 1e-6) - 1e-12
     assert verified["max_reflection"] <= dense * (1 + 1e-3) + 1e-12
     if not verified["meets_spec"]:
         assert any("above the spec" in w for w in result["warnings"])
-    rl = -20 * math.log10(max(verified["max_reflection"], 1e-15))
-    assert math.isclose(verified["min_return_loss_db"], min(rl, 300.0), rel_tol=1e-9)
+    # Return loss by its definition, -20 log10 |Gamma| (IEEE Std 100), wherever |Gamma| is not ~0.
+    if worst > 1e-12:
+        assert math.isclose(verified["min_return_loss_db"], -20 * math.log10(worst), rel_tol=1e-9)
+    else:
+        assert verified["min_return_loss_db"] >= 200.0
 
 
 @PROPERTY_SETTINGS

@@ -5,6 +5,7 @@ import json
 import xml.etree.ElementTree as ET
 
 import pytest
+import scipy.stats
 
 from service.settings import PROJECT_ROOT
 
@@ -34,23 +35,22 @@ ITEM = {
 )
 def test_drawing_is_valid_svg_with_one_shape_per_section(client, item):
     item = {k: v for k, v in item.items() if v is not None}
-    design = (
-        client.post("/v1/yield", json={"design": item, "tolerances": {}, "trials": 1}).json()["design"]
-        if "medium" in item
-        else None
-    )
+    design = client.post("/v1/batch", json={"requests": [item]}).json()["results"][0]["design"]
     response = client.post("/v1/drawings", json=item)
     assert response.status_code == 200, response.text
     assert response.headers["content-type"].startswith("image/svg+xml")
     root = ET.fromstring(response.text)
     assert root.tag == f"{SVG}svg"
     shapes = [r for r in root.iter(f"{SVG}rect") if r.get("class") == "section"]
-    if design is not None:
-        assert len(shapes) == len(design["sections"])
-        labels = " ".join(t.text or "" for t in root.iter(f"{SVG}text"))
-        first = design["sections"][0]
-        size = first.get("width_m") or first.get("inner_diameter_m")
-        assert f"{size * 1e3:.3f} mm" in labels and f"L {first['length_m'] * 1e3:.3f} mm" in labels
+    assert len(shapes) == len(design["sections"])
+    assert [int(r.get("data-index")) for r in shapes] == list(range(1, len(shapes) + 1))
+    labels = " ".join(t.text or "" for t in root.iter(f"{SVG}text"))
+    first = design["sections"][0]
+    size = first.get("width_m") or first.get("inner_diameter_m")
+    size_label = f"{size * 1e3:.3f} mm" if size else f"{first['impedance_ohm']:.2f} ohm"
+    assert size_label in labels and f"L {first['length_m'] * 1e3:.3f} mm" in labels
+    total = sum(section["length_m"] for section in design["sections"])
+    assert f"total length {total * 1e3:.3f} mm" in labels
     widths = [float(r.get("width")) for r in shapes]
     assert min(widths) > 0
 
@@ -92,8 +92,9 @@ def test_same_seed_same_result_and_sampling_error(client):
     p, n = first["yield_fraction"], first["trials"]
     # Binomial standard error sqrt(p (1 - p) / N) (textbook statistics).
     assert first["standard_error"] == pytest.approx((p * (1 - p) / n) ** 0.5)
-    low, high = first["interval_95"]
-    assert low <= p <= high
+    # Wilson score interval, against SciPy's binomtest(...).proportion_ci(method="wilson").
+    reference = scipy.stats.binomtest(round(p * n), n).proportion_ci(confidence_level=0.95, method="wilson")
+    assert first["interval_95"] == pytest.approx([reference.low, reference.high], rel=1e-9)
 
 
 def test_yield_needs_a_physical_medium(client):
