@@ -1,0 +1,1 @@
+"""File formats: Touchstone reading and writing, CSV tables, SVG drawings."""

@@ -1,4 +1,4 @@
-"""Orchestration: synthesize with design/, check with the exact cascade, and compare the two.
+"""Orchestration: synthesize with synthesis/, realize in a medium, check with analysis/, and compare the two.
 
 The only package that calls both the synthesis theory and the independent network analysis.
 """
