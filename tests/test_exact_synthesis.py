@@ -127,7 +127,7 @@ def test_exact_api_meets_spec_where_small_reflection_misses(client, base_request
     assert abs(exact["predicted"]["departure_fraction"]) < 1e-6
     assert exact["verified"]["meets_spec"]
     assert approx["verified"]["max_reflection"] > 0.1
-    assert any("Try theory 'exact'" in warning for warning in approx["warnings"])
+    assert any("theory 'exact', not tried here" in warning for warning in approx["warnings"])
 
 
 def test_exact_spec_driven_is_smallest(client, base_request):

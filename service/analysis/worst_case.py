@@ -48,8 +48,13 @@ def return_loss_db(reflection: np.ndarray | float) -> np.ndarray:
     return -20.0 * np.log10(np.maximum(reflection, floor))
 
 
-def vswr(reflection: float) -> float:
-    """Voltage standing-wave ratio of a reflection magnitude below one."""
+TOTAL_REFLECTION = 1.0 - 1e-12  # |reflection| at or above this counts as total: VSWR is unbounded
+
+
+def vswr(reflection: float) -> float | None:
+    """Voltage standing-wave ratio of a reflection magnitude; None where the reflection is total."""
+    if reflection >= TOTAL_REFLECTION:
+        return None
     return (1.0 + reflection) / (1.0 - reflection)
 
 

@@ -62,7 +62,7 @@ def sweep_csv_lines(parameters: list[str], results: Iterable[ItemResult]) -> Ite
                 repr(design.total_length_m),
                 repr(figures.max_reflection),
                 repr(figures.min_return_loss_db),
-                repr(figures.max_vswr),
+                "" if figures.max_vswr is None else repr(figures.max_vswr),
                 repr(figures.worst_frequency_hz),
                 figures.meets_spec,
                 "",

@@ -8,20 +8,59 @@ from service.pipeline.wording import hz_text, percent_text
 from service.schemas.results import BodeFanoFigures, PredictedFigures, VerifiedFigures
 
 PREDICTION_TOLERANCE = 0.01  # relative departure of the exact peak worth a warning
+PLAUSIBLE_MIN_HZ = 1e3  # a band below this is more likely a unit slip than a design
+PLAUSIBLE_MAX_LENGTH_M = 100.0
 
 
 def spec_warnings(verified: VerifiedFigures, suggest_exact: bool = False) -> list[str]:
-    """A plain sentence when the exact cascade misses the spec (with a hint for approximate designs)."""
+    """A plain sentence when the exact cascade misses the spec (with an untried hint where one fits)."""
     if verified.meets_spec:
         return []
     excess = verified.max_reflection / verified.spec_max_reflection - 1.0
-    hint = " Try theory 'exact', which holds for any impedance ratio." if suggest_exact else ""
+    hint = (
+        " The exact theory (theory 'exact', not tried here) removes the small-reflection error, "
+        "which grows with the impedance ratio."
+        if suggest_exact
+        else ""
+    )
     return [
         f"The exact cascade reaches |reflection| {verified.max_reflection:.4g} "
         f"({float(return_loss_db(verified.max_reflection)):.2f} dB return loss) at "
         f"{hz_text(verified.worst_frequency_hz)}, {percent_text(excess)} above the spec "
         f"{verified.spec_max_reflection:.4g}.{hint}"
     ]
+
+
+def unmatched_warnings(verified: VerifiedFigures, unmatched: float) -> list[str]:
+    """Say so when the design does no better than connecting the load straight to the source."""
+    if verified.max_reflection < unmatched:
+        return []
+    return [
+        f"This design's worst reflection {verified.max_reflection:.4g} is no better than the load's "
+        f"own {unmatched:.4g} connected straight to the source line: over this band it does not help."
+    ]
+
+
+def total_reflection_warnings(verified: VerifiedFigures) -> list[str]:
+    """Explain a null VSWR."""
+    if verified.max_vswr is not None:
+        return []
+    return [
+        f"At {hz_text(verified.worst_frequency_hz)} the line reflects everything (|reflection| 1, "
+        "return loss 0 dB): the VSWR there is unbounded and is given as null."
+    ]
+
+
+def plausibility_warnings(stop_hz: float, total_length_m: float) -> list[str]:
+    """Ask about units when the band or the design is far from anything usually built."""
+    if stop_hz >= PLAUSIBLE_MIN_HZ and total_length_m <= PLAUSIBLE_MAX_LENGTH_M:
+        return []
+    what = (
+        f"the band ends at {hz_text(stop_hz)}"
+        if stop_hz < PLAUSIBLE_MIN_HZ
+        else (f"the design is {total_length_m:.4g} m long")
+    )
+    return [f"Check the units: {what}. Was the band meant in GHz or MHz (the API takes hertz)?"]
 
 
 def departure_warnings(

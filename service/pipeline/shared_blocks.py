@@ -7,6 +7,7 @@ from typing import Any
 
 from service.analysis.line_cascade import LineCascade
 from service.analysis.section_tables import SectionTable
+from service.analysis.unmatched import unmatched_max_reflection
 from service.physics.loads import CircuitLoad, LoadModel
 from service.physics.media import IdealLine
 from service.pipeline.options import DesignOptions
@@ -60,6 +61,7 @@ def checked_blocks(
         "velocity_factor": medium.velocity_factor if isinstance(medium, IdealLine) else None,
         "medium": medium.kind,
         "bode_fano": bode_fano,
+        "unmatched_max_reflection": unmatched_max_reflection(line.load, line.source_ohm, band.start_hz, band.stop_hz),
     }
     notes = medium.notes(line.geometry, band.start_hz, band.stop_hz, options.min_feature_m)
     return CheckedBlocks(fields, bode_fano, list(notes))

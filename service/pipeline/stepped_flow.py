@@ -16,6 +16,9 @@ from service.schemas.results import TransformerDesign
 from service.schemas.transformers import MatchRequest, QuarterWaveRequest, TransformerRequest
 from service.synthesis.multisection import InfeasibleDesignError
 
+MIN_GAIN_PER_SECTION = 0.02  # an added section must lower the worst reflection by this fraction
+MAX_REFINED_SECTIONS = 8  # refined designs: each count costs a refinement of up to two seconds
+
 Synthesized = synthesis.SteppedDesign | synthesis.WeightedDesign
 
 
@@ -86,7 +89,7 @@ def chebyshev_recipe(request: TransformerRequest) -> SteppedRecipe:
     Sections only: ripple set by the band. Spec only: smallest N, edges on the band limits.
     Both: that N and ripple, the band following from them.
     """
-    ripple = request.max_reflection if request.sections is not None else None
+    ripple = request.spec_reflection if request.sections is not None and request.spec_given else None
     return _multisection_recipe("chebyshev", request, synthesis.chebyshev, ripple, synthesis.chebyshev_sections_for)
 
 
@@ -132,25 +135,58 @@ def chebyshev(request: TransformerRequest, options: DesignOptions | None = None)
 def design_to_spec(
     recipe: SteppedRecipe, options: DesignOptions | None, first: TransformerDesign | DesignSummary | None = None
 ) -> TransformerDesign | DesignSummary:
-    """The design at the requested N, or the smallest N that the exact cascade says meets the spec.
+    """The design at the requested N, or by spec the shortest design the exact cascade finds best.
 
-    The theory's N is tried first (or `first`, its already-checked design or summary); where the exact
-    cascade misses the spec, N grows until it meets it (or the section limit is reached), and a
-    warning says so. For loads that change with frequency the theory's N is kept and refined.
+    The theory's N is tried first (or `first`, its already-checked design or summary). Where the
+    exact cascade misses the spec, N grows while each added section lowers the verified worst
+    reflection by at least MIN_GAIN_PER_SECTION; the search ends at the first design that meets
+    the spec, or returns the shortest design that reached the best value found, and says so.
     """
     theory_sections = recipe.theory_sections()
-    result = first or _verified_at(recipe, theory_sections, (), options)
-    if recipe.sections is not None or recipe.target.load.frequency_dependent:
-        return result  # refined designs keep the theory's count: each refinement takes up to seconds
+    best = first or _verified_at(recipe, theory_sections, (), options)
+    if recipe.sections is not None or best.verified.meets_spec:
+        return best
+    refined = not recipe.target.resistive
+    ceiling = MAX_REFINED_SECTIONS if refined else MAX_SECTIONS
     sections = theory_sections
-    while not result.verified.meets_spec and sections < MAX_SECTIONS:
+    while sections < ceiling:
         sections += 1
-        note = (
-            f"The {recipe.theory} theory asks for {theory_sections} sections; the exact cascade "
-            f"needed {sections} to meet the spec."
-        )
-        result = _verified_at(recipe, sections, (note,), options)
-    return result
+        candidate = _verified_at(recipe, sections, (), options)
+        if candidate.verified.meets_spec:
+            extra = len(candidate.sections) - sections  # a rotating section, for a reactive load
+            asked = f"{theory_sections + extra} sections" + (" (with the rotating section)" if extra else "")
+            note = (
+                f"The {recipe.theory} theory asks for {asked}; the exact cascade needed "
+                f"{len(candidate.sections)} to meet the spec."
+            )
+            return _with_note(candidate, note)
+        if candidate.verified.max_reflection > best.verified.max_reflection * (1.0 - MIN_GAIN_PER_SECTION):
+            break
+        best = candidate
+    return _with_note(best, _best_found_note(recipe, best, sections >= ceiling))
+
+
+def _best_found_note(recipe: SteppedRecipe, best: TransformerDesign | DesignSummary, at_ceiling: bool) -> str:
+    count = len(best.sections)
+    why = (
+        f"the search stops at {count} sections"
+        if at_ceiling
+        else f"one more section lowered it by less than {MIN_GAIN_PER_SECTION:.0%}"
+    )
+    bound = (
+        f" The Bode-Fano bound for this load and band is {best.bode_fano.min_reflection:.4g}."
+        if (getattr(best, "bode_fano", None) is not None)
+        else ""
+    )
+    return (
+        f"The best this {recipe.method} design reaches is {best.verified.max_reflection:.4g} with {count} "
+        f"{'section' if count == 1 else 'sections'} ({why}); the spec {best.verified.spec_max_reflection:.4g} "
+        f"is not met.{bound}"
+    )
+
+
+def _with_note(result: TransformerDesign | DesignSummary, note: str) -> TransformerDesign | DesignSummary:
+    return result.model_copy(update={"warnings": [note, *result.warnings]})
 
 
 def _verified_at(

@@ -6,6 +6,7 @@ import math
 
 from service.constants import SMALL_REFLECTION, SPEED_OF_LIGHT_M_PER_S
 from service.errors import UnmeetableRequestError
+from service.physics.loads import impedance_at
 from service.pipeline.options import DesignOptions
 from service.pipeline.target import Target, target_for
 from service.pipeline.verify import verify_design
@@ -15,32 +16,66 @@ from service.synthesis.multisection import InfeasibleDesignError
 from service.synthesis.tapers import taper
 
 MAX_STRETCHES = 12  # times the spec-driven length may be corrected by the exact cascade
+MIN_GAIN_PER_STRETCH = 0.02  # a longer taper must lower the worst reflection by this fraction
+MIN_DESIGN_FRACTION = 1e-3  # the theoretical reflection a taper is designed for never goes below this x spec
 
 
 def tapered(request: TaperRequest, options: DesignOptions | None = None) -> TransformerDesign:
     """A discretized exponential, triangular or Klopfenstein taper.
 
     Spec-driven tapers start at the theory's shortest length; where the exact cascade misses
-    the spec (small-reflection theory is optimistic for large ratios) the taper is redesigned
-    for a proportionally tighter theoretical reflection until the cascade meets the spec.
+    the spec (small-reflection theory is optimistic for large ratios; a reactive load's match
+    is narrow) the taper is redesigned for a proportionally tighter theoretical reflection. It
+    is lengthened only while each step lowers the verified worst reflection by at least
+    MIN_GAIN_PER_STRETCH; otherwise the shortest taper that reached the best value is returned.
+    For a reactive load the taper into the rotated load is tried beside tapers straight into the
+    load's centre resistance and magnitude; the shortest that meets the spec, or else the best, wins.
     """
     target = target_for(request)
+    candidates = [_for_target(request, target, options)]
+    if target.rotation is not None:  # over a wide band a taper straight into the load can do better
+        center = impedance_at(target.load, request.band.center_hz)
+        for resistance in (center.real, abs(center)):
+            try:
+                candidates.append(_for_target(request, target.unrotated(resistance), options))
+            except UnmeetableRequestError:
+                continue  # e.g. that resistance already within the spec: no taper of its own
+    meeting = [c for c in candidates if c.verified.meets_spec]
+    if meeting:
+        return min(meeting, key=lambda c: c.total_length_m)
+    return min(candidates, key=lambda c: c.verified.max_reflection)
+
+
+def _for_target(request: TaperRequest, target: Target, options: DesignOptions | None) -> TransformerDesign:
+    """The taper into one target: of the requested length, or by spec."""
     if request.length_m is not None:
         beta_start = 2.0 * math.pi * request.band.start_hz / (request.velocity_factor * SPEED_OF_LIGHT_M_PER_S)
         return _taper(request, target, beta_start * request.length_m, None, [], options)
     spec = request.spec_reflection
     design_reflection = spec
-    result = _taper(request, target, None, design_reflection, [], options)
+    best = _taper(request, target, None, design_reflection, [], options)
     for _ in range(MAX_STRETCHES):
-        if result.verified.meets_spec or target.load.frequency_dependent:
-            break  # a refined taper is not stretched: each refinement takes up to seconds
-        design_reflection *= 0.98 * spec / result.verified.max_reflection
+        if best.verified.meets_spec or design_reflection <= spec * MIN_DESIGN_FRACTION:
+            return best
+        design_reflection = max(
+            design_reflection * 0.98 * spec / best.verified.max_reflection, spec * MIN_DESIGN_FRACTION
+        )
         note = (
             f"The theory's shortest taper missed the spec on the exact cascade; this one is designed "
             f"for a theoretical {design_reflection:.4g} to meet {spec:.4g}."
         )
-        result = _taper(request, target, None, design_reflection, [note], options)
-    return result
+        candidate = _taper(request, target, None, design_reflection, [note], options)
+        if candidate.verified.meets_spec:
+            return candidate
+        if candidate.verified.max_reflection > best.verified.max_reflection * (1.0 - MIN_GAIN_PER_STRETCH):
+            break
+        best = candidate
+    note = (
+        f"The best this {request.profile} taper reaches is {best.verified.max_reflection:.4g} at "
+        f"{best.total_length_m:.4g} m; a longer taper lowered it by less than {MIN_GAIN_PER_STRETCH:.0%}, "
+        f"so the spec {spec:.4g} is not met."
+    )
+    return best.model_copy(update={"warnings": [note, *best.warnings]})
 
 
 def _taper(

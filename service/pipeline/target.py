@@ -3,8 +3,9 @@ the band centre (after a rotating section for a reactive load) and the band edge
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
+from service.analysis.worst_case import TOTAL_REFLECTION
 from service.errors import UnmeetableRequestError
 from service.physics.loads import LoadModel, impedance_at
 from service.pipeline.request_models import load_model
@@ -23,6 +24,11 @@ class Target:
     resistance_ohm: float
     rotation: RotatingSection | None
     edge_angle_rad: float
+    resistive: bool  # a plain resistance: the theory's design is the whole answer, nothing is refined
+
+    def unrotated(self, resistance_ohm: float) -> Target:
+        """The same load matched as if it were this resistance, with no rotating section."""
+        return replace(self, resistance_ohm=resistance_ohm, rotation=None)
 
 
 def target_for(request: MatchRequest) -> Target:
@@ -35,10 +41,15 @@ def target_for(request: MatchRequest) -> Target:
             "band", f"the band reaches beyond the load data, which cover {covered[0]:g} to {covered[1]:g} Hz"
         )
     center = impedance_at(load, band.center_hz)
-    if not center.real > 0.0:
-        raise UnmeetableRequestError("load", "the load has no positive resistance at the band centre")
+    if not center.real > 0.0 or abs((center - request.source_ohm) / (center + request.source_ohm)) >= TOTAL_REFLECTION:
+        raise UnmeetableRequestError(
+            "load",
+            f"the load ({center.real:.4g}{center.imag:+.4g}j ohm at the band centre) reflects all the power "
+            "it is given (|reflection| 1 to within rounding): it absorbs nothing, so no passive lossless "
+            "network can match it",
+        )
     edge = band_edge_angle_rad(band.start_hz, band.stop_hz)
     if abs(center.imag) <= REAL_TOLERANCE * abs(center):
-        return Target(load, center.real, None, edge)
+        return Target(load, center.real, None, edge, not load.frequency_dependent)
     rotation = rotating_section(request.source_ohm, center)
-    return Target(load, rotation.resistance_ohm, rotation, edge)
+    return Target(load, rotation.resistance_ohm, rotation, edge, False)

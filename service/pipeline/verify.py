@@ -6,25 +6,28 @@ the cascade runs over designs x frequencies x sections in one go.
 
 from __future__ import annotations
 
-import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 
 from service import synthesis
 from service.analysis.line_cascade import LineCascade
 from service.analysis.section_tables import SectionTable, section_tables
-from service.analysis.worst_case import check, check_many
+from service.analysis.worst_case import check_many
+from service.constants import SMALL_REFLECTION
 from service.errors import UnmeetableRequestError
 from service.pipeline.messages import (
     bode_fano_warnings,
     coverage_warnings,
     departure_warnings,
+    plausibility_warnings,
     spec_warnings,
+    total_reflection_warnings,
+    unmatched_warnings,
 )
 from service.pipeline.options import DesignOptions
-from service.pipeline.realize import line_for, quarter_wave_m
-from service.pipeline.refine import refine_minimax
+from service.pipeline.realize import line_for
+from service.pipeline.refined_check import limit_refusal, needs_refinement, refined_check
 from service.pipeline.shared_blocks import checked_blocks
 from service.pipeline.target import Target
 from service.schemas.bulk import DesignSummary
@@ -96,7 +99,7 @@ def verify_many(
 
 def _line_or_error(pending: PendingCheck) -> LineCascade | UnmeetableRequestError:
     try:
-        return line_for(
+        line = line_for(
             pending.request,
             pending.target,
             pending.synthesized.impedances_ohm,
@@ -104,6 +107,7 @@ def _line_or_error(pending: PendingCheck) -> LineCascade | UnmeetableRequestErro
         )
     except UnmeetableRequestError as exc:
         return exc
+    return limit_refusal(pending.request, pending.target, line) or line
 
 
 def _verify_lines(
@@ -116,23 +120,16 @@ def _verify_lines(
     checked = []
     verified = check_many(lines, starts, stops, specs, points, curves=not summaries)
     for pending, line, (figures, curve) in zip(queue, lines, verified, strict=True):
-        refinement = None
-        if pending.target.load.frequency_dependent:
-            line, refinement, curve = _refine(line, pending.request, figures)
+        refinement, notes = None, ()
+        if needs_refinement(pending.request, pending.target, line):
+            taper = pending.method == "taper"
+            refined = refined_check(line, pending.request, pending.target, pending.theory, taper, figures, options)
+            line, refinement, curve, notes = refined.line, refined.refinement, refined.curve, refined.notes
             figures = refinement.after
-        checked.append((pending, line, figures, refinement, curve))
+        checked.append((replace(pending, notes=pending.notes + notes), line, figures, refinement, curve))
     centers = np.array([j.request.band.center_hz for j in queue])
     tables = section_tables([line for _, line, *_ in checked], centers, junctions=not summaries)
     return [_assemble(*parts, table, options, summaries) for parts, table in zip(checked, tables, strict=True)]
-
-
-def _refine(
-    line: LineCascade, request: MatchRequest, before: VerifiedFigures
-) -> tuple[LineCascade, RefinementFigures, ResponseCurve]:
-    band = request.band
-    refined = refine_minimax(line, band.start_hz, band.stop_hz, quarter_wave_m(line, band.center_hz))
-    after, curve = check(refined.after, band.start_hz, band.stop_hz, request.spec_reflection, request.points)
-    return refined.after, RefinementFigures(before=before, after=after, iterations=refined.iterations), curve
 
 
 def _assemble(
@@ -157,18 +154,22 @@ def _assemble(
     requested_fraction = (band.stop_hz - band.start_hz) / band.center_hz
     warnings = [*synthesized.notes, *pending.notes, *blocks.medium_notes]
     warnings += coverage_warnings(spec, requested_fraction, predicted)
-    suggest_exact = theory == synthesis.SMALL_REFLECTION.name and pending.method in THEORY_METHODS
+    resistive = target.resistive
+    suggest_exact = resistive and refinement is None and theory == SMALL_REFLECTION and pending.method in THEORY_METHODS
     warnings += spec_warnings(verified, suggest_exact)
-    if target.rotation is None and not target.load.frequency_dependent:
+    if resistive and refinement is None:
         warnings += departure_warnings(predicted, verified, theory, line.medium)
+    elif resistive:
+        warnings.append(f"The {theory} prediction is that of the unrefined design; rely on the verified figures.")
     else:
         warnings.append(
             f"The {theory} prediction covers the transformer into the load's centre-frequency "
             f"resistance ({target.resistance_ohm:.6g} ohm) only; for this load rely on the verified figures."
         )
     warnings += bode_fano_warnings(blocks.bode_fano, spec)
-    if target.rotation is not None:
-        warnings.append(_rotation_note(request, target))
+    warnings += unmatched_warnings(verified, blocks.fields["unmatched_max_reflection"])
+    warnings += total_reflection_warnings(verified)
+    warnings += plausibility_warnings(band.stop_hz, float(line.lengths_m.sum()))
     fields = {"method": pending.method, "theory": theory, "predicted": predicted, "refinement": refinement}
     fields |= blocks.fields | {"warnings": warnings}
     return DesignSummary.picked(fields, include_curve=False) if summary else TransformerDesign(**fields)
@@ -179,12 +180,3 @@ def _departure(verified: float, predicted: float) -> float | None:
     if predicted <= 1e-15:
         return 0.0 if verified <= 1e-12 else None
     return verified / predicted - 1.0
-
-
-def _rotation_note(request: MatchRequest, target: Target) -> str:
-    """Tell the user what the last section is for."""
-    degrees = math.degrees(float(target.rotation.electrical_length_rad))
-    return (
-        f"The last section is {degrees:.4g} degrees of {request.source_ohm:g} ohm line that turns the "
-        f"load real ({target.resistance_ohm:.6g} ohm) at the band centre; the transformer matches that."
-    )

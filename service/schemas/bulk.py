@@ -32,6 +32,7 @@ class DesignSummary(BaseModel):
     sections: list[SectionResult]
     predicted: PredictedFigures
     verified: VerifiedFigures
+    unmatched_max_reflection: float
     warnings: list[str]
     response: ResponseCurve | None = None
 

@@ -49,6 +49,18 @@ MaxReflection = Annotated[
     float,
     Field(gt=0.0, lt=1.0, description="Largest allowed |reflection coefficient| over the band."),
 ]
+MinReturnLossDb = Annotated[
+    float,
+    Field(
+        gt=0.0,
+        le=200.0,
+        description="Smallest allowed return loss over the band, in dB (-20 log10 |reflection|); 20 dB is 0.1.",
+    ),
+]
+MaxVswr = Annotated[
+    float,
+    Field(gt=1.0, le=1e6, description="Largest allowed VSWR over the band; 1.22 is |reflection| 0.1."),
+]
 
 
 class StrictModel(BaseModel):

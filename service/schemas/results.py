@@ -46,7 +46,9 @@ class VerifiedFigures(BaseModel):
     """Figures from the exact ABCD cascade over the requested band."""
 
     max_reflection: float
-    max_vswr: float
+    max_vswr: float | None = Field(
+        description="Largest VSWR in the band; null where some frequency reflects everything (unbounded VSWR)."
+    )
     min_return_loss_db: float
     worst_frequency_hz: float = Field(description="Where the largest reflection occurs.")
     spec_max_reflection: float = Field(description="The spec the design is judged against.")
@@ -99,6 +101,9 @@ class AnalysisResult(BaseModel):
     velocity_factor: float | None = Field(description="Of the ideal line; null for physical media.")
     medium: str = Field(description="The kind of line: ideal, microstrip, stripline or coax.")
     bode_fano: BodeFanoFigures | None = Field(None, description="Given for lumped R-C and R-L loads.")
+    unmatched_max_reflection: float = Field(
+        description="The worst |reflection| over the band of the load connected straight to the source line."
+    )
     warnings: list[str] = Field(description="Plain sentences about anything worth a second look.")
 
 
@@ -110,5 +115,9 @@ class TransformerDesign(AnalysisResult):
     profile: str | None = Field(None, description="The taper profile, for method 'taper'.")
     predicted: PredictedFigures
     refinement: RefinementFigures | None = Field(
-        None, description="Given for loads that change with frequency, whose sections are refined."
+        None,
+        description=(
+            "Given where the sections were refined: for every load that is not a plain resistance, "
+            "and for designs refined within the impedance limits."
+        ),
     )

@@ -13,7 +13,7 @@ from service.schemas.transformers import MatchRequest
 class TaperRequest(MatchRequest):
     """A taper from the source line to the load, returned as `segments` equal steps.
 
-    Give `max_reflection` and the length follows from the lower band edge (the shortest taper
+    Give a spec (or none, for the default 0.1) and the length follows from the lower band edge (the shortest taper
     of this profile within the spec there and above); give `length_m` and the achieved
     reflection is reported. Klopfenstein's taper puts its passband edge on the lower band limit.
     """

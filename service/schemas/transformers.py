@@ -11,6 +11,8 @@ from service.schemas.common import (
     Band,
     ImpedanceOhm,
     MaxReflection,
+    MaxVswr,
+    MinReturnLossDb,
     Points,
     StrictModel,
     VelocityFactor,
@@ -21,19 +23,23 @@ from service.schemas.media import MediumSpec
 DEFAULT_SPEC_REFLECTION = 0.1  # 20 dB return loss, used when a request states no spec
 
 TheoryName = Literal[SMALL_REFLECTION, EXACT]
+SPEC_FIELDS = ("max_reflection", "min_return_loss_db", "max_vswr")
 
 
 class MatchRequest(StrictModel):
     """What every design request states: source, load, band, spec and the curve wanted.
 
-    Without `max_reflection` the spec that `verified.meets_spec` is judged against is
-    |reflection| <= 0.1 (20 dB return loss).
+    The spec is at most one of `max_reflection`, `min_return_loss_db` or `max_vswr` (the same
+    requirement in three units); without any, designs are judged against |reflection| <= 0.1
+    (20 dB return loss). `min_impedance_ohm` and `max_impedance_ohm` bound every section.
     """
 
     source_ohm: ImpedanceOhm
     load: Load
     band: Band
     max_reflection: MaxReflection | None = None
+    min_return_loss_db: MinReturnLossDb | None = None
+    max_vswr: MaxVswr | None = None
     points: Points = DEFAULT_POINTS
     velocity_factor: VelocityFactor = Field(
         1.0, description="Velocity factor of the ideal line, when no `medium` is given."
@@ -41,23 +47,51 @@ class MatchRequest(StrictModel):
     medium: MediumSpec | None = Field(
         None, description="The line the sections are built in; the ideal line of `velocity_factor` by default."
     )
+    min_impedance_ohm: ImpedanceOhm | None = Field(
+        None, description="Lowest section impedance allowed (default: see the README, Impedance limits)."
+    )
+    max_impedance_ohm: ImpedanceOhm | None = Field(
+        None, description="Highest section impedance allowed (default: see the README, Impedance limits)."
+    )
+    outside_limits: Literal["refuse", "refine"] = Field(
+        "refuse",
+        description=(
+            "What to do when the theory's design needs a section outside min_impedance_ohm .. "
+            "max_impedance_ohm: refuse with a 422 naming the section, or refine the design within them."
+        ),
+    )
 
     @model_validator(mode="after")
-    def _one_velocity(self) -> MatchRequest:
+    def _consistent(self) -> MatchRequest:
         if self.medium is not None and "velocity_factor" in self.model_fields_set:
             raise ValueError("give velocity_factor at the top level or a medium, not both")
+        given = [name for name in SPEC_FIELDS if getattr(self, name) is not None]
+        if len(given) > 1:
+            raise ValueError(f"give the spec once, as one of {', '.join(SPEC_FIELDS)}; got {' and '.join(given)}")
+        low, high = self.min_impedance_ohm, self.max_impedance_ohm
+        if low is not None and high is not None and not low < high:
+            raise ValueError("min_impedance_ohm must be below max_impedance_ohm")
         return self
 
     @property
+    def spec_given(self) -> bool:
+        """Whether the request states a spec (in any of its three forms)."""
+        return any(getattr(self, name) is not None for name in SPEC_FIELDS)
+
+    @property
     def spec_reflection(self) -> float:
-        """The reflection the design is judged against: the request's, or the default."""
+        """The spec as |reflection|: from whichever form the request gives, or the default."""
+        if self.min_return_loss_db is not None:
+            return 10.0 ** (-self.min_return_loss_db / 20.0)
+        if self.max_vswr is not None:
+            return (self.max_vswr - 1.0) / (self.max_vswr + 1.0)
         return DEFAULT_SPEC_REFLECTION if self.max_reflection is None else self.max_reflection
 
 
 class TransformerRequest(MatchRequest):
     """Match `load` to a line of `source_ohm` over `band` with a multi-section transformer.
 
-    Give `sections`, `max_reflection`, both or neither. Without `sections` the smallest section
+    Give `sections`, a spec, both or neither. Without `sections` the smallest section
     count that meets the spec over the band is used.
     """
 

@@ -35,8 +35,10 @@ def _identity(value: float) -> float:
 
 
 def _loss_measure(reflection: float) -> float:
-    """|Gamma| -> |Gamma| / sqrt(1 - |Gamma|^2), the square root of (power loss ratio - 1)."""
-    return reflection / math.sqrt(1.0 - reflection * reflection)
+    """|Gamma| -> |Gamma| / sqrt(1 - |Gamma|^2), the square root of (power loss ratio - 1); infinite
+    where |Gamma| rounds to 1."""
+    remainder = 1.0 - reflection * reflection
+    return math.inf if remainder <= 0.0 else reflection / math.sqrt(remainder)
 
 
 def _loss_unmeasure(measure: float) -> float:

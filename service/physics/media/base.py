@@ -43,6 +43,11 @@ class Medium(Protocol):
         """Plain warnings: validity ranges, manufacturability, higher-order modes in band."""
         ...
 
+    def geometry_limits(self, stop_hz: float, min_feature_m: float) -> tuple[float, float]:
+        """The smallest and largest geometry worth building: no feature under min_feature_m and no
+        higher-order mode (by the same estimate as the notes) up to stop_hz. Bounds refinement."""
+        ...
+
 
 def invert_monotone(impedance_of: callable, target_ohm: float, low: float, high: float, what: str) -> float:
     """Solve impedance_of(x) = target for x in [low, high] by bracketing in log x.

@@ -54,6 +54,11 @@ class CoaxLine(LineLosses):
             )
         return self.outer_diameter_m / ratio
 
+    def geometry_limits(self, stop_hz: float, min_feature_m: float) -> tuple[float, float]:
+        no_te11 = 2.0 * C0 / (math.pi * math.sqrt(self.eps_r) * stop_hz) - self.outer_diameter_m
+        widest = min(self.outer_diameter_m - 2.0 * min_feature_m, no_te11)  # a gap of min_feature_m
+        return min_feature_m, max(widest, min_feature_m)
+
     def notes(self, geometry: np.ndarray, start_hz: float, stop_hz: float, min_feature_m: float) -> list[str]:
         notes = []
         if np.any(np.asarray(geometry) < min_feature_m):

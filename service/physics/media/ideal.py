@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -28,3 +29,6 @@ class IdealLine:
 
     def notes(self, geometry: np.ndarray, start_hz: float, stop_hz: float, min_feature_m: float) -> list[str]:
         return []
+
+    def geometry_limits(self, stop_hz: float, min_feature_m: float) -> tuple[float, float]:
+        return 0.0, math.inf

@@ -141,6 +141,10 @@ class MicrostripLine(LineLosses):
             [invert_monotone(impedance_of, float(z), low, high, "microstrip") for z in np.atleast_1d(impedance_ohm)]
         )
 
+    def geometry_limits(self, stop_hz: float, min_feature_m: float) -> tuple[float, float]:
+        widest = (C0 / (math.sqrt(self.eps_r) * stop_hz) - 0.8 * self.height_m) / 2.0  # transverse resonance
+        return min_feature_m, max(widest, min_feature_m)
+
     def notes(self, geometry: np.ndarray, start_hz: float, stop_hz: float, min_feature_m: float) -> list[str]:
         u = np.asarray(geometry) / self.height_m
         notes = []

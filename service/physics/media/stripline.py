@@ -68,6 +68,10 @@ class StriplineLine(LineLosses):
             [invert_monotone(impedance_of, float(z), low, high, "stripline") for z in np.atleast_1d(impedance_ohm)]
         )
 
+    def geometry_limits(self, stop_hz: float, min_feature_m: float) -> tuple[float, float]:
+        widest = (C0 / (math.sqrt(self.eps_r) * stop_hz) - math.pi * self.ground_spacing_m / 2.0) / 2.0
+        return min_feature_m, max(widest, min_feature_m)
+
     def notes(self, geometry: np.ndarray, start_hz: float, stop_hz: float, min_feature_m: float) -> list[str]:
         w = np.asarray(geometry) / (self.ground_spacing_m - self.thickness_m)
         notes = []
