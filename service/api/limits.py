@@ -15,6 +15,7 @@ from service.analysis.worst_case import REFINE_POINTS as VERIFY_REFINE_POINTS
 from service.constants import DEFAULT_POINTS, DEFAULT_SEGMENTS, YIELD_GRID_POINTS
 from service.errors import UnmeetableRequestError
 from service.pipeline.options import DesignOptions
+from service.pipeline.refine import MAX_SECONDS as REFINE_SECONDS
 from service.settings import Settings
 
 PER_DESIGN_S = 1.5e-3
@@ -24,7 +25,8 @@ REFINE_POINTS = PEAKS_REFINED * (VERIFY_REFINE_POINTS + 1)  # a fine grid and a 
 PHYSICAL_MEDIUM_FACTOR = 3.0
 SPEC_DRIVEN_FACTOR = 2.0
 TAPER_FACTOR = 4.0
-REFINEMENT_S = 1.7  # the refinement's own time limit, and a little to check its result
+REFINEMENT_S = REFINE_SECONDS + 0.2  # the refinement's own time limit, and a little to check its result
+SEARCHED_REFINEMENTS = 3.0  # section counts a spec-driven search for a refined load typically tries
 GUESSED_SECTIONS = 8
 
 
@@ -53,10 +55,22 @@ def design_seconds(item: dict[str, Any]) -> float:
         seconds *= TAPER_FACTOR
     elif item.get("sections") is None:
         seconds *= SPEC_DRIVEN_FACTOR
-    load = item.get("load")
-    if isinstance(load, dict) and any(load.get(k) is not None for k in ("circuit", "measured", "touchstone")):
-        seconds += REFINEMENT_S
+    if _refined(item):
+        searched = item.get("sections") is None and not taper
+        seconds += REFINEMENT_S * (SEARCHED_REFINEMENTS if searched else 1.0)
     return seconds
+
+
+def _refined(item: dict[str, Any]) -> bool:
+    """Whether the design will be refined: any load but a plain resistance, or limits to refine within."""
+    load = item.get("load")
+    if item.get("outside_limits") == "refine":
+        return True
+    if not isinstance(load, dict):
+        return False
+    reactance = load.get("reactance_ohm")
+    reactive = isinstance(reactance, int | float) and not isinstance(reactance, bool) and reactance != 0
+    return reactive or any(load.get(k) is not None for k in ("circuit", "measured", "touchstone"))
 
 
 def yield_seconds(design: dict[str, Any], trials: int) -> float:
@@ -93,6 +107,14 @@ def admit_design(item: dict[str, Any], settings: Settings, count: int = 1) -> fl
     """Sizes and budget of a request that makes `count` designs like `item`; its estimated seconds."""
     admit_sizes(item, settings)
     seconds = count * design_seconds(item)
+    admit_budget(seconds, settings, "body")
+    return seconds
+
+
+def admit_designs(items: list[dict[str, Any]], settings: Settings) -> float:
+    """Sizes and budget of a request that makes these designs together; its estimated seconds."""
+    admit_sizes(items[0], settings)
+    seconds = sum(design_seconds(item) for item in items)
     admit_budget(seconds, settings, "body")
     return seconds
 

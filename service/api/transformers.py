@@ -10,7 +10,7 @@ from service import pipeline
 from service.api.delivery import FormatQuery, deliver, export_responses, output_format
 from service.api.documented import error_responses
 from service.api.examples import request_examples
-from service.api.limits import admit_design, design_options
+from service.api.limits import admit_design, admit_designs, design_options
 from service.api.scheduling import run_sized
 from service.schemas.comparison import CompareRequest, Comparison
 from service.schemas.results import TransformerDesign
@@ -88,7 +88,7 @@ def build_router(settings: Settings) -> APIRouter:
     @router.post("/compare", response_model=Comparison, summary="Every method side by side")
     def compare(request: Annotated[CompareRequest, Body(openapi_examples=compare_examples)]) -> Comparison:
         """All applicable methods and theories for one request, ranked for meeting the spec shortest."""
-        admit_design(request.model_dump(), settings, count=8)
+        admit_designs(pipeline.compare_items(request), settings)
         return pipeline.compare(request, options)
 
     return router

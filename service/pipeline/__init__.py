@@ -4,7 +4,7 @@ The only package that calls both the synthesis theory and the independent networ
 """
 
 from service.pipeline.analyze import analyze
-from service.pipeline.compare import compare
+from service.pipeline.compare import compare, compare_items
 from service.pipeline.items import design_item
 from service.pipeline.stepped_flow import binomial, chebyshev, quarter_wave
 from service.pipeline.taper_flow import tapered
@@ -15,6 +15,7 @@ __all__ = [
     "binomial",
     "chebyshev",
     "compare",
+    "compare_items",
     "design_item",
     "quarter_wave",
     "tapered",

@@ -10,10 +10,11 @@ from service.errors import UnmeetableRequestError
 from service.pipeline.options import DesignOptions
 from service.pipeline.stepped_flow import binomial, chebyshev, quarter_wave
 from service.pipeline.taper_flow import tapered
+from service.pipeline.target import target_for
 from service.schemas.comparison import Candidate, CompareRequest, Comparison, Excluded
 from service.schemas.results import TransformerDesign
 from service.schemas.tapers import TaperRequest
-from service.schemas.transformers import QuarterWaveRequest, TransformerRequest
+from service.schemas.transformers import MatchRequest, QuarterWaveRequest, TransformerRequest
 
 THEORY_NAMES = (SMALL_REFLECTION, EXACT)
 TAPER_PROFILES = ("klopfenstein", "exponential", "triangular")
@@ -48,6 +49,26 @@ def compare(request: CompareRequest, options: DesignOptions | None = None) -> Co
     return Comparison(spec_max_reflection=request.spec_reflection, candidates=candidates, excluded=excluded)
 
 
+def stepped_variants(request: MatchRequest) -> list[tuple[str, str]]:
+    """(method, theory) of the stepped designs to make. For a plain resistance every method in both
+    theories; for any other load the refinement decides the sections, and from either method or
+    theory it reaches the same design, so one start (exact Chebyshev) is made."""
+    if target_for(request).resistive:
+        return [(method, theory) for method in ("binomial", "chebyshev") for theory in THEORY_NAMES]
+    return [("chebyshev", EXACT)]
+
+
+def compare_items(request: CompareRequest) -> list[dict[str, Any]]:
+    """Each design the comparison makes, as a request item (for its compute estimate)."""
+    common = request.model_dump(exclude={"include_tapers", "taper_segments"})
+    items = [common | {"method": "quarter-wave", "sections": 1}] if request.sections in (None, 1) else []
+    items += [common | {"method": method, "theory": theory} for method, theory in stepped_variants(request)]
+    if request.include_tapers:
+        taper = common | {"method": "taper", "segments": request.taper_segments, "sections": None}
+        items += [taper | {"profile": profile} for profile in TAPER_PROFILES]
+    return items
+
+
 def _runs(request: CompareRequest, options: DesignOptions | None) -> list[Run]:
     """The designs that apply to this request, each as a deferred call."""
     common: dict[str, Any] = request.model_dump(
@@ -58,10 +79,10 @@ def _runs(request: CompareRequest, options: DesignOptions | None) -> list[Run]:
         runs.append(
             ("quarter-wave", SMALL_REFLECTION, None, lambda: quarter_wave(QuarterWaveRequest(**common), options))
         )
-    for method, function in (("binomial", binomial), ("chebyshev", chebyshev)):
-        for theory in THEORY_NAMES:
-            stepped = TransformerRequest(**common, sections=request.sections, theory=theory)
-            runs.append((method, theory, None, lambda f=function, r=stepped: f(r, options)))
+    functions = {"binomial": binomial, "chebyshev": chebyshev}
+    for method, theory in stepped_variants(request):
+        stepped = TransformerRequest(**common, sections=request.sections, theory=theory)
+        runs.append((method, theory, None, lambda f=functions[method], r=stepped: f(r, options)))
     if request.include_tapers:
         for profile in TAPER_PROFILES:
             taper = TaperRequest(**common, profile=profile, segments=request.taper_segments)

@@ -23,7 +23,7 @@ from service.analysis.worst_case import worst_reflection
 
 GRID_POINTS = 81
 RANDOM_STARTS = 11  # seeded random starts besides the theory's design (fewer for one free section)
-RANDOM_STARTS_PER_SECTION = 4
+RANDOM_STARTS_PER_SECTION = 3
 PROBE_ITERATIONS = 30  # iterations every start gets
 FINALISTS = 2  # starts that then run to convergence
 MAX_ITERATIONS = 200

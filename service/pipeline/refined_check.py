@@ -22,7 +22,7 @@ from service.pipeline.refine import refine_minimax
 from service.pipeline.section_limits import geometry_bounds, refusal, section_limits
 from service.pipeline.target import Target
 from service.schemas.results import RefinementFigures, ResponseCurve, VerifiedFigures
-from service.schemas.transformers import MatchRequest
+from service.schemas.transformers import SynthesisRequest
 
 AT_LIMIT = 5e-3  # a refined impedance this close (relative) to a limit is said to sit on it
 
@@ -42,14 +42,14 @@ def centre_impedances(line: LineCascade, center_hz: float) -> np.ndarray:
     return line.medium.parameters(line.geometry, np.array([[center_hz]])).impedance_ohm[0]
 
 
-def limit_refusal(request: MatchRequest, target: Target, line: LineCascade) -> UnmeetableRequestError | None:
+def limit_refusal(request: SynthesisRequest, target: Target, line: LineCascade) -> UnmeetableRequestError | None:
     """The 422 for a design that leaves a limit the request set, unless it asks for refinement."""
     if request.outside_limits == "refine":
         return None
     return refusal(section_limits(request, target), centre_impedances(line, request.band.center_hz))
 
 
-def needs_refinement(request: MatchRequest, target: Target, line: LineCascade) -> bool:
+def needs_refinement(request: SynthesisRequest, target: Target, line: LineCascade) -> bool:
     """True for loads that are not a plain resistance, and for designs outside the limits."""
     if not target.resistive:
         return True
@@ -58,7 +58,7 @@ def needs_refinement(request: MatchRequest, target: Target, line: LineCascade) -
 
 def refined_check(
     line: LineCascade,
-    request: MatchRequest,
+    request: SynthesisRequest,
     target: Target,
     theory: str,
     taper: bool,
@@ -79,7 +79,7 @@ def refined_check(
 
 
 def _refinement_note(
-    request: MatchRequest, target: Target, theory: str, taper: bool, figures: RefinementFigures
+    request: SynthesisRequest, target: Target, theory: str, taper: bool, figures: RefinementFigures
 ) -> str:
     if target.rotation is not None:
         start = (

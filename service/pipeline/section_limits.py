@@ -18,7 +18,7 @@ from service.analysis.line_cascade import LineCascade
 from service.errors import UnmeetableRequestError
 from service.physics.media import RealizationError
 from service.pipeline.target import Target
-from service.schemas.transformers import MatchRequest
+from service.schemas.transformers import SynthesisRequest
 
 DEFAULT_LOW_OHM = 10.0
 DEFAULT_HIGH_OHM = 200.0
@@ -43,7 +43,7 @@ class SectionLimits:
         return None
 
 
-def section_limits(request: MatchRequest, target: Target) -> SectionLimits:
+def section_limits(request: SynthesisRequest, target: Target) -> SectionLimits:
     """The request's limits, with the documented defaults where it sets none."""
     span = [request.source_ohm]
     if target.resistive:
@@ -70,7 +70,7 @@ def refusal(limits: SectionLimits, impedances_ohm: np.ndarray) -> UnmeetableRequ
 
 
 def geometry_bounds(
-    line: LineCascade, limits: SectionLimits, request: MatchRequest, min_feature_m: float
+    line: LineCascade, limits: SectionLimits, request: SynthesisRequest, min_feature_m: float
 ) -> tuple[float, float]:
     """The geometry range the refinement may use: the impedance limits, narrowed to what the medium
     can build over the band, as geometry in this medium."""

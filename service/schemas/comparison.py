@@ -6,10 +6,10 @@ from pydantic import BaseModel, Field
 
 from service.constants import DEFAULT_SEGMENTS, MAX_SECTIONS, MAX_SEGMENTS
 from service.schemas.results import TransformerDesign, VerifiedFigures
-from service.schemas.transformers import MatchRequest
+from service.schemas.transformers import SynthesisRequest
 
 
-class CompareRequest(MatchRequest):
+class CompareRequest(SynthesisRequest):
     """One matching problem, designed by every method and theory that applies.
 
     `sections` fixes the stepped designs' section count (the quarter-wave joins only for 1);

@@ -7,10 +7,10 @@ from typing import Literal
 from pydantic import Field
 
 from service.constants import DEFAULT_SEGMENTS, MAX_SEGMENTS
-from service.schemas.transformers import MatchRequest
+from service.schemas.transformers import SynthesisRequest
 
 
-class TaperRequest(MatchRequest):
+class TaperRequest(SynthesisRequest):
     """A taper from the source line to the load, returned as `segments` equal steps.
 
     Give a spec (or none, for the default 0.1) and the length follows from the lower band edge (the shortest taper

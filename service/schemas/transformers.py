@@ -31,7 +31,7 @@ class MatchRequest(StrictModel):
 
     The spec is at most one of `max_reflection`, `min_return_loss_db` or `max_vswr` (the same
     requirement in three units); without any, designs are judged against |reflection| <= 0.1
-    (20 dB return loss). `min_impedance_ohm` and `max_impedance_ohm` bound every section.
+    (20 dB return loss).
     """
 
     source_ohm: ImpedanceOhm
@@ -47,19 +47,6 @@ class MatchRequest(StrictModel):
     medium: MediumSpec | None = Field(
         None, description="The line the sections are built in; the ideal line of `velocity_factor` by default."
     )
-    min_impedance_ohm: ImpedanceOhm | None = Field(
-        None, description="Lowest section impedance allowed (default: see the README, Impedance limits)."
-    )
-    max_impedance_ohm: ImpedanceOhm | None = Field(
-        None, description="Highest section impedance allowed (default: see the README, Impedance limits)."
-    )
-    outside_limits: Literal["refuse", "refine"] = Field(
-        "refuse",
-        description=(
-            "What to do when the theory's design needs a section outside min_impedance_ohm .. "
-            "max_impedance_ohm: refuse with a 422 naming the section, or refine the design within them."
-        ),
-    )
 
     @model_validator(mode="after")
     def _consistent(self) -> MatchRequest:
@@ -68,9 +55,6 @@ class MatchRequest(StrictModel):
         given = [name for name in SPEC_FIELDS if getattr(self, name) is not None]
         if len(given) > 1:
             raise ValueError(f"give the spec once, as one of {', '.join(SPEC_FIELDS)}; got {' and '.join(given)}")
-        low, high = self.min_impedance_ohm, self.max_impedance_ohm
-        if low is not None and high is not None and not low < high:
-            raise ValueError("min_impedance_ohm must be below max_impedance_ohm")
         return self
 
     @property
@@ -88,7 +72,36 @@ class MatchRequest(StrictModel):
         return DEFAULT_SPEC_REFLECTION if self.max_reflection is None else self.max_reflection
 
 
-class TransformerRequest(MatchRequest):
+class SynthesisRequest(MatchRequest):
+    """A request the service designs sections for: the section impedances it may use.
+
+    Without limits, sections stay within 10 to 200 ohm widened to take in the source and a
+    resistive load (README, Impedance limits); limits given here are hard.
+    """
+
+    min_impedance_ohm: ImpedanceOhm | None = Field(
+        None, description="Lowest section impedance allowed (default: see the README, Impedance limits)."
+    )
+    max_impedance_ohm: ImpedanceOhm | None = Field(
+        None, description="Highest section impedance allowed (default: see the README, Impedance limits)."
+    )
+    outside_limits: Literal["refuse", "refine"] = Field(
+        "refuse",
+        description=(
+            "What to do when the theory's design needs a section outside min_impedance_ohm .. "
+            "max_impedance_ohm: refuse with a 422 naming the section, or refine the design within them."
+        ),
+    )
+
+    @model_validator(mode="after")
+    def _ordered_limits(self) -> SynthesisRequest:
+        low, high = self.min_impedance_ohm, self.max_impedance_ohm
+        if low is not None and high is not None and not low < high:
+            raise ValueError("min_impedance_ohm must be below max_impedance_ohm")
+        return self
+
+
+class TransformerRequest(SynthesisRequest):
     """Match `load` to a line of `source_ohm` over `band` with a multi-section transformer.
 
     Give `sections`, a spec, both or neither. Without `sections` the smallest section
@@ -105,7 +118,7 @@ class TransformerRequest(MatchRequest):
     )
 
 
-class QuarterWaveRequest(MatchRequest):
+class QuarterWaveRequest(SynthesisRequest):
     """A single quarter-wave section of impedance sqrt(Z0 RL)."""
 
     sections: Literal[1] | None = Field(
