@@ -111,6 +111,18 @@ def test_new_design_bad_value_and_share_link(browser, server_url, tmp_path):
     assert restored.locator("#sections-table tbody tr").count() == 3
 
 
+def test_spec_as_return_loss_reaches_the_api_and_survives_the_link(browser, server_url):
+    page = open_page(browser, server_url + "/")
+    page.select_option("#spec-form", "min_return_loss_db")
+    page.fill("#spec", "26")
+    # 26 dB return loss is |reflection| 10^(-26/20) = 0.0501 (definition, IEEE Std 100).
+    assert "0.05012" in page.inner_text("#spec-hint")
+    page.click("#design")
+    page.wait_for_function("document.getElementById('verdict').textContent.includes('0.0501')")
+    restored = open_page(browser, server_url + page.get_attribute("#share", "href"))
+    assert restored.input_value("#spec-form") == "min_return_loss_db" and restored.input_value("#spec") == "26"
+
+
 def test_physical_medium_draws_the_layout_and_embed_mode(browser, server_url, tmp_path):
     page = open_page(browser, server_url + "/?medium=microstrip&sections=3&method=chebyshev")
     page.wait_for_function("document.getElementById('layout').naturalWidth > 0")

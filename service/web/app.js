@@ -1,11 +1,11 @@
 /* The lab page: read the form, ask the API, draw what comes back. No outside scripts. */
 "use strict";
 
-const FORM_IDS = ["source", "load-r", "load-x", "start", "stop", "spec", "method", "theory", "sections",
+const FORM_IDS = ["source", "load-r", "load-x", "start", "stop", "spec-form", "spec", "method", "theory", "sections",
   "profile", "segments", "medium", "vf", "eps-r", "height", "thickness", "outer"];
 const FIELD_INPUTS = {
   source_ohm: "source", load: "load-r", "load.resistance_ohm": "load-r", "load.reactance_ohm": "load-x",
-  band: "start", "band.start_hz": "start", "band.stop_hz": "stop", max_reflection: "spec",
+  band: "start", "band.start_hz": "start", "band.stop_hz": "stop", max_reflection: "spec", min_return_loss_db: "spec", max_vswr: "spec",
   sections: "sections", theory: "theory", profile: "profile", segments: "segments", velocity_factor: "vf",
   medium: "medium", "medium.velocity_factor": "vf", "medium.eps_r": "eps-r", "medium.height_m": "height",
   "medium.ground_spacing_m": "height", "medium.thickness_m": "thickness", "medium.outer_diameter_m": "outer",
@@ -33,7 +33,7 @@ function buildRequest() {
     points: 201,
   };
   const spec = number("spec");
-  if (spec !== null) body.max_reflection = spec;
+  if (spec !== null) body[value("spec-form")] = spec;
   if (method === "binomial" || method === "chebyshev") {
     body.theory = value("theory");
     if (number("sections") !== null) body.sections = number("sections");
@@ -254,9 +254,20 @@ function showRelevantFields() {
   show(".medium-physical", medium !== "ideal");
   show(".medium-board", medium === "microstrip" || medium === "stripline");
   show(".medium-coax", medium === "coax");
-  const spec = number("spec");
-  byId("spec-hint").textContent = typeof spec === "number" && spec > 0 && spec < 1
-    ? `= ${(-20 * Math.log10(spec)).toFixed(2)} dB return loss, VSWR ${((1 + spec) / (1 - spec)).toFixed(3)}` : "";
+  byId("spec-hint").textContent = specHint(value("spec-form"), number("spec"));
+}
+
+/** The spec in the two forms it was not given in, as a hint beside the field. */
+function specHint(form, spec) {
+  if (typeof spec !== "number") return "";
+  let reflection = null;
+  if (form === "max_reflection" && spec > 0 && spec < 1) reflection = spec;
+  if (form === "min_return_loss_db" && spec > 0) reflection = 10 ** (-spec / 20);
+  if (form === "max_vswr" && spec > 1) reflection = (spec - 1) / (spec + 1);
+  if (reflection === null) return "";
+  const returnLoss = (-20 * Math.log10(reflection)).toFixed(2);
+  const vswr = ((1 + reflection) / (1 - reflection)).toFixed(3);
+  return `= |reflection| ${reflection.toPrecision(4)}, ${returnLoss} dB return loss, VSWR ${vswr}`;
 }
 
 function restoreFromUrl() {
