@@ -72,3 +72,14 @@ def test_unknown_format_is_refused(client, base_request):
     response = client.post("/v1/transformers/binomial?format=pdf", json=base_request)
     assert response.status_code == 422
     assert response.json()["problems"][0]["field"] == "query.format"
+
+
+def test_two_port_data_order_keyword_matches_the_columns():
+    # A non-reciprocal two-port (S21 != S12) written and read back by scikit-rf, which follows the
+    # Touchstone 2.0 specification's [Two-Port Data Order] keyword: S12 and S21 must not swap.
+    from service.formats.touchstone import write_two_port
+
+    frequency = np.array([1e9, 2e9])
+    s = np.array([[[0.1 + 0.0j, 0.02 + 0.01j], [0.9 - 0.1j, 0.2j]], [[0.15j, 0.03 + 0.0j], [0.8 + 0.2j, -0.1 + 0.0j]]])
+    network = read_with_scikit_rf(write_two_port(frequency, s, (50.0, 50.0), ["non-reciprocal check"]))
+    np.testing.assert_allclose(network.s, s, atol=1e-15)

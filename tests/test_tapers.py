@@ -98,3 +98,18 @@ def test_bad_taper_requests(client, base_request, fields, field):
     response = client.post("/v1/transformers/taper", json=base_request | fields)
     assert response.status_code == 422
     assert response.json()["problems"][0]["field"] == field
+
+
+@pytest.mark.parametrize(
+    "medium",
+    [
+        {"kind": "coax", "eps_r": 2.1, "outer_diameter_m": 7e-3},
+        {"kind": "microstrip", "eps_r": 4.4, "height_m": 1.6e-3, "thickness_m": 35e-6},
+        {"kind": "stripline", "eps_r": 2.2, "ground_spacing_m": 3.2e-3, "thickness_m": 17e-6},
+    ],
+)
+def test_fixed_length_taper_has_that_length_in_every_medium(client, base_request, medium):
+    # The request states a physical length; the drawing the layout person gets must have it.
+    result = post_taper(client, base_request, profile="klopfenstein", length_m=0.1, medium=medium)
+    assert result["total_length_m"] == pytest.approx(0.1, rel=1e-9)
+    assert sum(s["length_m"] for s in result["sections"]) == pytest.approx(0.1, rel=1e-9)

@@ -149,15 +149,15 @@ def write_two_port(
 ) -> str:
     """Touchstone 2.0 text of a two-port in RI form, one reference impedance per port.
 
-    Version 2.0 is used because it states a reference per port ([Reference]); the data order is
-    the version 2.0 two-port order 12_21, i.e. N11 N21 N12 N22 on each line.
+    Version 2.0 is used because it states a reference per port ([Reference]). Each line holds
+    N11 N21 N12 N22 (the version 1 order), which version 2.0 names 21_12 in [Two-Port Data Order].
     """
     lines = [f"! {comment}" for comment in comments]
     lines += [
         "[Version] 2.0",
         "# Hz S RI R 50",
         "[Number of Ports] 2",
-        "[Two-Port Data Order] 12_21",
+        "[Two-Port Data Order] 21_12",
         f"[Number of Frequencies] {len(frequency_hz)}",
         f"[Reference] {references_ohm[0]:.17g} {references_ohm[1]:.17g}",
         "[Network Data]",

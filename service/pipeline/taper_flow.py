@@ -3,15 +3,21 @@
 from __future__ import annotations
 
 import math
+from dataclasses import replace
+
+import numpy as np
 
 from service.constants import SMALL_REFLECTION, SPEED_OF_LIGHT_M_PER_S
 from service.errors import UnmeetableRequestError
 from service.physics.loads import impedance_at
+from service.physics.media import RealizationError
 from service.pipeline.options import DesignOptions
+from service.pipeline.request_models import medium_model
 from service.pipeline.target import Target, target_for
 from service.pipeline.verify import verify_design
 from service.schemas.results import TransformerDesign
 from service.schemas.tapers import TaperRequest
+from service.synthesis import SteppedDesign
 from service.synthesis.multisection import InfeasibleDesignError
 from service.synthesis.tapers import taper
 
@@ -49,8 +55,7 @@ def tapered(request: TaperRequest, options: DesignOptions | None = None) -> Tran
 def _for_target(request: TaperRequest, target: Target, options: DesignOptions | None) -> TransformerDesign:
     """The taper into one target: of the requested length, or by spec."""
     if request.length_m is not None:
-        beta_start = 2.0 * math.pi * request.band.start_hz / (request.velocity_factor * SPEED_OF_LIGHT_M_PER_S)
-        return _taper(request, target, beta_start * request.length_m, None, [], options)
+        return _taper(request, target, _edge_length_rad(request, target), None, [], options)
     spec = request.spec_reflection
     design_reflection = spec
     best = _taper(request, target, None, design_reflection, [], options)
@@ -100,5 +105,33 @@ def _taper(
         )
     except InfeasibleDesignError as exc:
         raise UnmeetableRequestError("max_reflection", str(exc)) from exc
+    if request.length_m is not None:
+        synthesized = _equal_physical_steps(request, synthesized, request.length_m)
     result = verify_design("taper", SMALL_REFLECTION, request, target, synthesized, notes, options)
     return result.model_copy(update={"profile": request.profile})
+
+
+def _centre_eps_eff(request: TaperRequest, impedances_ohm: np.ndarray) -> np.ndarray:
+    """Each impedance's effective permittivity in the request's medium at the band centre."""
+    medium, centre = medium_model(request), request.band.center_hz
+    try:
+        geometry = medium.geometry_for(np.asarray(impedances_ohm, dtype=float), centre)
+    except RealizationError as exc:
+        raise UnmeetableRequestError("medium", str(exc)) from exc
+    return medium.parameters(geometry, np.full((1, geometry.size), centre)).eps_eff[0]
+
+
+def _edge_length_rad(request: TaperRequest, target: Target) -> float:
+    """beta L at the lower band edge of a taper of the requested length, with the eps_eff of the
+    medium at the band centre for the taper's middle impedance sqrt(Z0 RL)."""
+    eps = float(_centre_eps_eff(request, np.array([math.sqrt(request.source_ohm * target.resistance_ohm)]))[0])
+    return 2.0 * math.pi * request.band.start_hz * math.sqrt(eps) * request.length_m / SPEED_OF_LIGHT_M_PER_S
+
+
+def _equal_physical_steps(request: TaperRequest, synthesized: SteppedDesign, length_m: float) -> SteppedDesign:
+    """The steps cut to equal physical lengths adding up to length_m: each step's electrical length
+    from its own eps_eff at the band centre (in microstrip the permittivity changes along a taper)."""
+    eps = _centre_eps_eff(request, synthesized.impedances_ohm)
+    step_m = length_m / synthesized.impedances_ohm.size
+    angles = 2.0 * math.pi * request.band.center_hz * np.sqrt(eps) * step_m / SPEED_OF_LIGHT_M_PER_S
+    return replace(synthesized, electrical_length_rad=angles)

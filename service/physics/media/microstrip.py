@@ -126,8 +126,11 @@ class MicrostripLine(LineLosses):
                 filling = np.where(self.eps_r > 1.0, (eps_eff - 1.0) / np.maximum(self.eps_r - 1.0, 1e-300), 0.0)
                 attenuation = attenuation + k0 * self.eps_r * filling * self.loss_tangent / (2.0 * np.sqrt(eps_eff))
             if self.conductivity_s_per_m is not None:
+                # Hammerstad and Jensen (1980): alpha_c = Rs Kr Ki / (Z0 W), with the current
+                # distribution factor Ki = exp(-1.2 (Z0 / eta0)^0.7); the model scikit-rf's MLine uses.
                 resistance = self.conductor_resistance_ohm(f)
-                attenuation = attenuation + resistance / (impedance * np.asarray(geometry))
+                distribution = np.exp(-1.2 * (impedance / ETA_0_OHM) ** 0.7)
+                attenuation = attenuation + resistance * distribution / (impedance * np.asarray(geometry))
         return LineParameters(impedance, eps_eff, attenuation)
 
     def geometry_for(self, impedance_ohm: np.ndarray, frequency_hz: float) -> np.ndarray:
