@@ -220,3 +220,51 @@ def test_microstrip_losses_against_scikit_rf(eps_r, height, impedance):
     ours = medium.parameters(np.array([width]), frequency.f[:, None]).attenuation_np_per_m[:, 0]
     expected = reference.alpha_conductor + reference.alpha_dielectric
     np.testing.assert_allclose(ours, expected, rtol=0.02)  # measured: within 1.3% over this grid
+
+
+def test_wide_stripline_conductor_loss_tends_to_the_parallel_plate_limit():
+    # Two parallel-plate halves: the strip's two faces and the two grounds each carry the current
+    # over width W, so alpha_c -> Rs / (2 W Z0) as W / b grows (plane-wave skin-effect loss, Pozar
+    # ch. 2, from memory); Pozar's eq. 3.199 approaches it from above.
+    b, t, conductivity, f = 1.6e-3, 17e-6, 5.8e7, 2e9
+    medium = StriplineLine(2.2, b, t, conductivity_s_per_m=conductivity)
+    rs = math.sqrt(math.pi * f * scipy.constants.mu_0 / conductivity)
+    ratios = []
+    for width in (10 * b, 40 * b, 160 * b):
+        params = medium.parameters(np.array([width]), np.array([[f]]))
+        limit = rs / (2 * width * params.impedance_ohm[0, 0])
+        ratios.append(params.attenuation_np_per_m[0, 0] / limit)
+    assert ratios == sorted(ratios, reverse=True) and 1.0 < ratios[-1] < 1.05
+
+
+@pytest.mark.parametrize("impedance", [20.0, 50.0, 90.0, 120.0])
+def test_stripline_conductor_loss_is_the_published_formula(impedance):
+    # Pozar, Microwave Engineering, eq. 3.199-3.200 (from memory), written out here from the book:
+    # sqrt(eps_r) Z0 < 120: alpha_c = 2.7e-3 Rs eps_r Z0 / (30 pi (b - t)) A,
+    #   A = 1 + 2W/(b - t) + (b + t) / (pi (b - t)) ln((2b - t) / t);
+    # otherwise alpha_c = 0.16 Rs / (Z0 b) B, B = 1 + b / (0.5W + 0.7t) (0.5 + 0.414 t/W + ln(4 pi W / t) / (2 pi)).
+    eps_r, b, t, conductivity, f = 2.2, 3.2e-3, 35e-6, 5.8e7, 5e9
+    medium = StriplineLine(eps_r, b, t, conductivity_s_per_m=conductivity)
+    w = float(medium.geometry_for(np.array([impedance]), f)[0])
+    z = float(medium.parameters(np.array([w]), np.array([[f]])).impedance_ohm[0, 0])
+    rs = math.sqrt(math.pi * f * scipy.constants.mu_0 / conductivity)
+    if math.sqrt(eps_r) * z < 120:
+        a = 1 + 2 * w / (b - t) + (b + t) / (math.pi * (b - t)) * math.log((2 * b - t) / t)
+        expected = 2.7e-3 * rs * eps_r * z / (30 * math.pi * (b - t)) * a
+    else:
+        bb = 1 + b / (0.5 * w + 0.7 * t) * (0.5 + 0.414 * t / w + math.log(4 * math.pi * w / t) / (2 * math.pi))
+        expected = 0.16 * rs / (z * b) * bb
+    ours = medium.parameters(np.array([w]), np.array([[f]])).attenuation_np_per_m[0, 0]
+    assert ours == pytest.approx(expected, rel=1e-9)  # mu0: the project's 4 pi 1e-7 vs CODATA's
+
+
+def test_stripline_conductor_loss_needs_a_thickness(client, base_request):
+    medium = {
+        "kind": "stripline",
+        "eps_r": 2.2,
+        "ground_spacing_m": 3.2e-3,
+        "thickness_m": 0.0,
+        "conductivity_s_per_m": 5.8e7,
+    }
+    response = client.post("/v1/transformers/binomial", json=base_request | {"medium": medium})
+    assert response.status_code == 422 and "thickness_m > 0" in response.text

@@ -59,6 +59,10 @@ class StriplineSpec(LossFields):
     def _strip_fits(self) -> StriplineSpec:
         if self.thickness_m >= 0.5 * self.ground_spacing_m:
             raise ValueError("thickness_m must be less than half of ground_spacing_m")
+        if self.conductivity_s_per_m is not None and self.thickness_m == 0.0:
+            raise ValueError(
+                "stripline conductor loss needs thickness_m > 0: its published formula diverges at zero thickness"
+            )
         return self
 
 

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from collections.abc import Callable
 from dataclasses import dataclass
 
@@ -39,6 +40,19 @@ class LineLosses:
     @property
     def lossy(self) -> bool:
         return self.loss_tangent > 0.0 or self.conductivity_s_per_m is not None
+
+    def thin_conductor_notes(self, thickness_m: float, start_hz: float) -> list[str]:
+        """The conductor-loss models hold for conductors at least three skin depths thick (common
+        practice, no source); say so where the lowest band frequency has thinner ones."""
+        if self.conductivity_s_per_m is None or thickness_m <= 0.0:
+            return []
+        depth = 1.0 / math.sqrt(math.pi * start_hz * MU_0_H_PER_M * self.conductivity_s_per_m)
+        if thickness_m >= 3.0 * depth:
+            return []
+        return [
+            f"The strip is {thickness_m / depth:.3g} skin depths thick at the band start; the conductor "
+            "loss model assumes at least 3, so the insertion loss there is underestimated."
+        ]
 
     def conductor_resistance_ohm(self, frequency_hz: np.ndarray) -> np.ndarray:
         """Surface resistance with the roughness correction, at each frequency."""

@@ -172,4 +172,5 @@ class MicrostripLine(LineLosses):
                 f"A strip is wide enough for a transverse resonance at {float(np.min(resonance)) / 1e9:.4g} GHz, "
                 "within or below the band."
             )
+        notes += self.thin_conductor_notes(self.thickness_m, start_hz)
         return notes
