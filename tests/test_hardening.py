@@ -158,3 +158,27 @@ def test_extreme_valid_requests_answer_without_server_errors(method, change):
     response = client_with().post(f"/v1/transformers/{method}", json=BASE_REQUEST | change)
     assert response.status_code in (200, 422), response.text
     assert "NaN" not in response.text and "Infinity" not in response.text
+
+
+HUGE_ITEMS = [
+    {"sections": 10**400},  # float() of this JSON integer overflows
+    {"sections": 1e308, "points": 10**12},
+    {"sections": 2.5},
+    {"points": -(10**30)},
+]
+
+
+@pytest.mark.parametrize("bad", HUGE_ITEMS)
+def test_an_invalid_item_is_refused_in_place_and_never_prices_the_batch(client, base_request, bad):
+    items = [base_request | {"method": "binomial"} | bad, base_request | {"method": "binomial", "sections": 3}]
+    response = client.post("/v1/batch", json={"requests": items})
+    assert response.status_code == 200, response.text
+    assert [result["status"] for result in response.json()["results"]] == [422, 200]
+
+
+@pytest.mark.parametrize("values", [[2, 10**400], [2, 1e9], [2, -(10**20)]])
+def test_an_invalid_swept_value_is_refused_in_place(client, base_request, values):
+    body = {"base": base_request | {"method": "binomial"}, "vary": {"sections": values}}
+    response = client.post("/v1/sweeps", json=body)
+    assert response.status_code == 200, response.text
+    assert [result["status"] for result in response.json()["results"]] == [200, 422]

@@ -8,11 +8,19 @@ rough and on the safe side; its only job is to refuse requests that would hold a
 
 from __future__ import annotations
 
+import math
 from typing import Any
 
 from service.analysis.worst_case import CHECK_POINTS_PER_LOBE, MAX_CHECK_POINTS, MIN_CHECK_POINTS, PEAKS_REFINED
 from service.analysis.worst_case import REFINE_POINTS as VERIFY_REFINE_POINTS
-from service.constants import DEFAULT_POINTS, DEFAULT_SEGMENTS, YIELD_GRID_POINTS
+from service.constants import (
+    DEFAULT_POINTS,
+    DEFAULT_SEGMENTS,
+    MAX_POINTS,
+    MAX_SECTIONS,
+    MAX_SEGMENTS,
+    YIELD_GRID_POINTS,
+)
 from service.errors import UnmeetableRequestError
 from service.pipeline.options import DesignOptions
 from service.pipeline.refine import MAX_SECONDS as REFINE_SECONDS
@@ -28,10 +36,18 @@ TAPER_FACTOR = 4.0
 REFINEMENT_S = REFINE_SECONDS + 0.2  # the refinement's own time limit, and a little to check its result
 SEARCHED_REFINEMENTS = 3.0  # section counts a spec-driven search for a refined load typically tries
 GUESSED_SECTIONS = 8
+MAX_PRICED = 1e15  # any larger number in a body is refused by validation before it costs anything
 
 
-def _number(value: Any, default: float) -> float:
-    return float(value) if isinstance(value, int | float) and not isinstance(value, bool) else default
+def _number(value: Any, default: float, high: float = MAX_PRICED) -> float:
+    """A field's value for pricing: the default where it is missing, not a number, or beyond what
+    validation accepts (such an item is refused on its own, so it must not price the request)."""
+    if not isinstance(value, int | float) or isinstance(value, bool):
+        return default
+    if isinstance(value, int) and abs(value) > high:  # float() of a huge JSON integer overflows
+        return default
+    number = float(value)
+    return number if math.isfinite(number) and 0.0 <= number <= high else default
 
 
 def design_seconds(item: dict[str, Any]) -> float:
@@ -39,7 +55,9 @@ def design_seconds(item: dict[str, Any]) -> float:
     method = item.get("method")
     taper = method == "taper" or "profile" in item
     sections = (
-        _number(item.get("segments"), DEFAULT_SEGMENTS) if taper else _number(item.get("sections"), GUESSED_SECTIONS)
+        _number(item.get("segments"), DEFAULT_SEGMENTS, MAX_SEGMENTS)
+        if taper
+        else _number(item.get("sections"), GUESSED_SECTIONS, MAX_SECTIONS)
     )
     band = item.get("band") if isinstance(item.get("band"), dict) else {}
     start, stop = _number(band.get("start_hz"), 1.0), _number(band.get("stop_hz"), 3.0)
@@ -47,7 +65,7 @@ def design_seconds(item: dict[str, Any]) -> float:
     grid = min(
         max(CHECK_POINTS_PER_LOBE * (sections * ratio + 1.0) + 1.0, CHECK_POINTS_RANGE[0]), CHECK_POINTS_RANGE[1]
     )
-    points = _number(item.get("points"), DEFAULT_POINTS)
+    points = _number(item.get("points"), DEFAULT_POINTS, MAX_POINTS)
     medium = item.get("medium")
     factor = PHYSICAL_MEDIUM_FACTOR if isinstance(medium, dict) and medium.get("kind") != "ideal" else 1.0
     seconds = PER_DESIGN_S + PER_SECTION_POINT_S * sections * (grid + REFINE_POINTS + points) * factor
@@ -75,7 +93,7 @@ def _refined(item: dict[str, Any]) -> bool:
 
 def yield_seconds(design: dict[str, Any], trials: int) -> float:
     """Estimated compute of a yield analysis: the design, then every trial on the yield grid."""
-    sections = _number(design.get("sections"), GUESSED_SECTIONS)
+    sections = _number(design.get("sections"), GUESSED_SECTIONS, MAX_SECTIONS)
     trial = PER_SECTION_POINT_S * YIELD_GRID_POINTS * sections * PHYSICAL_MEDIUM_FACTOR
     return design_seconds(design) + trials * trial
 

@@ -11,6 +11,7 @@ from typing import Any
 import numpy as np
 from pydantic import TypeAdapter, ValidationError
 
+from service.constants import MAX_POINTS, MAX_SECTIONS, MAX_SEGMENTS
 from service.errors import UnmeetableRequestError, validation_problems
 from service.pipeline.batch import design_batch
 from service.pipeline.options import DesignOptions
@@ -100,11 +101,13 @@ def sweep_items(request: SweepRequest) -> Iterator[tuple[dict[str, Any], dict[st
 
 
 def sweep_worst_item(request: SweepRequest) -> dict[str, Any]:
-    """The base item with the largest swept section count, points and segments: the costliest design."""
+    """The base item with the largest valid swept section count, points and segments: the costliest
+    design (values validation refuses cost nothing; their items get their own 422)."""
     item = copy.deepcopy(request.base)
-    for key in ("sections", "points", "segments"):
+    for key, limit in (("sections", MAX_SECTIONS), ("points", MAX_POINTS), ("segments", MAX_SEGMENTS)):
         values = request.vary.get(key)
-        numbers = [v for v in sweep_values(values) if isinstance(v, int | float)] if values is not None else []
+        swept = sweep_values(values) if values is not None else []
+        numbers = [v for v in swept if isinstance(v, int | float) and not isinstance(v, bool) and 0 < v <= limit]
         if numbers:
             item[key] = max(numbers)
     return item
