@@ -12,7 +12,7 @@ from fastapi.staticfiles import StaticFiles
 
 from service import __version__
 from service.api import bulk, health, networks, realization, transformers, web
-from service.api.middleware import AccessLog, ApiKey, BodyLimit
+from service.api.middleware import AccessLog, ApiKey, BodyLimit, configure_access_log
 from service.api.security import SecurityHeaders
 from service.errors import install_error_handlers
 from service.settings import Settings
@@ -48,13 +48,7 @@ def create_app(settings: Settings | None = None) -> FastAPI:
     settings = settings or Settings.from_env()
     app = FastAPI(title="Stepline", version=__version__, description=DESCRIPTION, lifespan=_freeze_startup_heap)
     install_error_handlers(app)
-    if settings.cors_allow_origins:
-        app.add_middleware(
-            CORSMiddleware,
-            allow_origins=settings.cors_allow_origins,
-            allow_methods=["GET", "POST"],
-            allow_headers=["Content-Type", "Authorization"],
-        )
+    configure_access_log(settings.access_log)
     app.include_router(health.build_router(settings))
     app.include_router(transformers.build_router(settings))
     app.include_router(networks.build_router(settings))
@@ -62,9 +56,19 @@ def create_app(settings: Settings | None = None) -> FastAPI:
     app.include_router(bulk.build_router(settings))
     app.include_router(web.router)
     app.mount("/static", StaticFiles(directory=web.WEB_DIR), name="static")
-    app.add_middleware(SecurityHeaders, frame_ancestors=settings.frame_ancestors)
+    # The last added runs first. The key and body checks sit inside the headers and CORS layers,
+    # so that their 401 and 413 answers carry the same headers as every other answer, and a
+    # browser's CORS preflight (which never carries the key) is answered before the key check.
     app.add_middleware(ApiKey, key=settings.api_key)
     app.add_middleware(BodyLimit, max_bytes=settings.max_body_bytes)
+    app.add_middleware(SecurityHeaders, frame_ancestors=settings.frame_ancestors)
+    if settings.cors_allow_origins:
+        app.add_middleware(
+            CORSMiddleware,
+            allow_origins=settings.cors_allow_origins,
+            allow_methods=["GET", "POST"],
+            allow_headers=["Content-Type", "Authorization"],
+        )
     app.add_middleware(AccessLog)
     return app
 

@@ -34,6 +34,7 @@ class Settings:
     max_batch_items: int = 10_000
     max_sweep_designs: int = DEFAULT_MAX_SWEEP_DESIGNS
     compute_budget_s: float = 20.0  # estimated compute one request may take, in seconds
+    access_log: bool = True  # one JSON line per request on standard output
 
     @classmethod
     def from_env(cls, environ: dict[str, str] | None = None) -> Settings:
@@ -46,5 +47,10 @@ class Settings:
             if raw is None:
                 continue
             kind = type(getattr(defaults, setting.name))
-            values[setting.name] = [v.strip() for v in raw.split(",") if v.strip()] if kind is list else kind(raw)
+            if kind is list:
+                values[setting.name] = [v.strip() for v in raw.split(",") if v.strip()]
+            elif kind is bool:
+                values[setting.name] = raw.strip().lower() in ("1", "true", "yes", "on")
+            else:
+                values[setting.name] = kind(raw)
         return cls(**values)

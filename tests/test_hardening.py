@@ -127,6 +127,32 @@ def test_cors_allowlist():
     assert "access-control-allow-origin" not in other.headers
 
 
+def test_cors_preflight_and_refusals_carry_the_headers_with_a_key_set():
+    # The Fetch standard's CORS protocol: a preflight never carries credentials, so it must be
+    # answered without the key; refusals need the CORS headers for the page to read them.
+    origin = "http://lab-portal.example"
+    client = client_with(api_key="lab-bench-key", cors_allow_origins=[origin], max_body_bytes=4096)
+    preflight = client.options(
+        DESIGN,
+        headers={
+            "Origin": origin,
+            "Access-Control-Request-Method": "POST",
+            "Access-Control-Request-Headers": "authorization",
+        },
+    )
+    assert preflight.status_code == 200 and preflight.headers["access-control-allow-origin"] == origin
+    refused = client.post(DESIGN, json=BASE_REQUEST, headers={"Origin": origin})
+    too_big = client.post(
+        DESIGN,
+        content=b"{" + b" " * 8000 + b"}",
+        headers={"Origin": origin, "Authorization": "Bearer lab-bench-key", "Content-Type": "application/json"},
+    )
+    for answer, status in ((refused, 401), (too_big, 413)):
+        assert answer.status_code == status
+        assert answer.headers["access-control-allow-origin"] == origin
+        assert answer.headers["x-content-type-options"] == "nosniff"
+
+
 def test_page_headers_and_framing_setting():
     page = client_with(frame_ancestors=["http://lab-portal.example"]).get("/")
     assert page.headers["x-content-type-options"] == "nosniff"
@@ -182,3 +208,18 @@ def test_an_invalid_swept_value_is_refused_in_place(client, base_request, values
     response = client.post("/v1/sweeps", json=body)
     assert response.status_code == 200, response.text
     assert [result["status"] for result in response.json()["results"]] == [200, 422]
+
+
+def test_access_log_is_on_by_default_and_can_be_turned_off(capsys):
+    from service.api.middleware import access_log
+
+    assert Settings.from_env({}).access_log is True
+    quiet = Settings.from_env({"STEPLINE_ACCESS_LOG": "false"})
+    assert quiet.access_log is False
+    TestClient(create_app(quiet)).get("/v1/health")
+    assert not access_log.isEnabledFor(logging.INFO)
+    loud = TestClient(create_app(Settings()))
+    capsys.readouterr()
+    loud.get("/v1/health", headers={"X-Request-ID": "log-check-1"})
+    line = [json.loads(x) for x in capsys.readouterr().out.splitlines() if "log-check-1" in x]
+    assert line and line[0]["path"] == "/v1/health" and line[0]["status"] == 200

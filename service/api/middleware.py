@@ -6,6 +6,7 @@ import hmac
 import json
 import logging
 import re
+import sys
 import time
 import uuid
 
@@ -96,6 +97,25 @@ class ApiKey:
             return
         challenge = [(b"www-authenticate", b'Bearer realm="stepline"')]
         await _send_error(send, 401, "unauthorized", "authorization", "a valid API key is required", challenge)
+
+
+def configure_access_log(enabled: bool) -> None:
+    """Send the access log to standard output as bare JSON lines, unless the operator's logging
+    configuration already handles it; a disabled log builds no lines at all."""
+    if not enabled:
+        access_log.setLevel(logging.WARNING)
+        return
+    access_log.setLevel(logging.INFO)
+    if not access_log.handlers:
+        access_log.addHandler(_StandardOutput())
+
+
+class _StandardOutput(logging.Handler):
+    """Writes each record's message as a line to whatever sys.stdout is at the time."""
+
+    def emit(self, record: logging.LogRecord) -> None:
+        sys.stdout.write(record.getMessage() + "\n")
+        sys.stdout.flush()  # a log read through a pipe must not wait for a buffer to fill
 
 
 class AccessLog:
