@@ -44,8 +44,8 @@ def centre_impedances(line: LineCascade, center_hz: float) -> np.ndarray:
 
 def limit_refusal(request: SynthesisRequest, target: Target, line: LineCascade) -> UnmeetableRequestError | None:
     """The 422 for a design that leaves a limit the request set, unless it asks for refinement."""
-    if request.outside_limits == "refine":
-        return None
+    if request.outside_limits == "refine" or (request.min_impedance_ohm is None and request.max_impedance_ohm is None):
+        return None  # only limits the request sets are hard
     return refusal(section_limits(request, target), centre_impedances(line, request.band.center_hz))
 
 
@@ -53,6 +53,8 @@ def needs_refinement(request: SynthesisRequest, target: Target, line: LineCascad
     """True for loads that are not a plain resistance, and for designs outside the limits."""
     if not target.resistive:
         return True
+    if request.min_impedance_ohm is None and request.max_impedance_ohm is None:
+        return False  # the default limits take in the source and the load, between which a resistive design lies
     return section_limits(request, target).outside(centre_impedances(line, request.band.center_hz)) is not None
 
 
