@@ -13,6 +13,7 @@ from fastapi.staticfiles import StaticFiles
 from service import __version__
 from service.api import bulk, health, networks, realization, transformers, web
 from service.api.middleware import AccessLog, ApiKey, BodyLimit, configure_access_log
+from service.api.negotiation import FormatNegotiation
 from service.api.security import SecurityHeaders
 from service.errors import install_error_handlers
 from service.settings import Settings
@@ -59,6 +60,7 @@ def create_app(settings: Settings | None = None) -> FastAPI:
     # The last added runs first. The key and body checks sit inside the headers and CORS layers,
     # so that their 401 and 413 answers carry the same headers as every other answer, and a
     # browser's CORS preflight (which never carries the key) is answered before the key check.
+    app.add_middleware(FormatNegotiation)
     app.add_middleware(ApiKey, key=settings.api_key)
     app.add_middleware(BodyLimit, max_bytes=settings.max_body_bytes)
     app.add_middleware(SecurityHeaders, frame_ancestors=settings.frame_ancestors)

@@ -103,8 +103,17 @@ def install_error_handlers(app: FastAPI) -> None:
     """Register the handlers that give every error the same shape."""
 
     @app.exception_handler(RequestValidationError)
-    async def _invalid(_: Request, exc: RequestValidationError) -> JSONResponse:
-        return error_response(422, "invalid request", validation_problems(exc.errors()))
+    async def _invalid(request: Request, exc: RequestValidationError) -> JSONResponse:
+        problems = validation_problems(exc.errors())
+        content_type = request.headers.get("content-type", "")
+        if "json" not in content_type and any(p.field == "body" for p in problems):
+            sent = f"'{content_type}'" if content_type else "no content-type"
+            problems = [
+                Problem(
+                    field="body", message=f"send the body as JSON with 'content-type: application/json' (got {sent})"
+                )
+            ]
+        return error_response(422, "invalid request", problems)
 
     @app.exception_handler(UnmeetableRequestError)
     async def _unmeetable(_: Request, exc: UnmeetableRequestError) -> JSONResponse:

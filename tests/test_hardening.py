@@ -223,3 +223,49 @@ def test_access_log_is_on_by_default_and_can_be_turned_off(capsys):
     loud.get("/v1/health", headers={"X-Request-ID": "log-check-1"})
     line = [json.loads(x) for x in capsys.readouterr().out.splitlines() if "log-check-1" in x]
     assert line and line[0]["path"] == "/v1/health" and line[0]["status"] == 200
+
+
+@pytest.mark.parametrize(
+    "path, query, accept, field",
+    [
+        ("/v1/transformers/compare", "?format=csv", None, "format"),
+        ("/v1/transformers/compare", "", "text/csv", "accept"),
+        ("/v1/batch", "?format=touchstone", None, "format"),
+        ("/v1/transformers/binomial", "", "application/xml", "accept"),
+        ("/v1/sweeps", "?format=csv", None, "format"),
+    ],
+)
+def test_formats_a_route_lacks_are_refused_with_406(client, path, query, accept, field):
+    # RFC 9110 sec. 15.5.7: 406 when the route cannot answer in any format the request accepts.
+    headers = {"accept": accept} if accept else {}
+    body = BASE_REQUEST | {"method": "binomial"}
+    if path == "/v1/batch":
+        body = {"requests": [body]}
+    if path == "/v1/sweeps":
+        body = {"base": body, "vary": {"sections": [1, 2]}}
+    response = client.post(path + query, json=body, headers=headers)
+    assert response.status_code == 406
+    problem = response.json()["problems"][0]
+    assert problem["field"] == field and "json" in problem["message"]
+
+
+def test_formats_a_route_has_are_honoured(client):
+    assert client.post("/v1/transformers/compare?format=json", json=BASE_REQUEST).status_code == 200
+    browser = "text/html,application/xhtml+xml,application/xml;q=0.9,*/*;q=0.8"
+    assert client.post(DESIGN, json=BASE_REQUEST, headers={"accept": browser}).status_code == 200
+    csv_answer = client.post(DESIGN, json=BASE_REQUEST, headers={"accept": "text/csv"})
+    assert csv_answer.headers["content-type"].startswith("text/csv")
+
+
+def test_a_body_without_the_json_header_is_told_to_send_it(client):
+    response = client.post(DESIGN, content=json.dumps(BASE_REQUEST), headers={"content-type": "text/plain"})
+    assert response.status_code == 422
+    assert "content-type: application/json" in response.json()["problems"][0]["message"]
+
+
+def test_a_two_port_file_as_a_load_is_named_for_what_it_is(client):
+    two_port = "# GHz S MA R 50\n1 0.1 0 0.9 0 0.9 0 0.1 0\n2 0.1 0 0.9 0 0.9 0 0.1 0\n"
+    response = client.post(DESIGN, json=BASE_REQUEST | {"load": {"touchstone": two_port}})
+    assert response.status_code == 422
+    problem = response.json()["problems"][0]
+    assert problem["field"] == "load.touchstone" and "two-port" in problem["message"] and ".s1p" in problem["message"]

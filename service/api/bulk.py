@@ -7,7 +7,7 @@ from typing import Annotated
 from fastapi import APIRouter, Body
 from fastapi.responses import Response, StreamingResponse
 
-from service.api.delivery import json_response
+from service.api.delivery import NDJSON_TYPE, json_response
 from service.api.documented import error_responses
 from service.api.examples import request_examples
 from service.api.limits import admit_batch, admit_sizes, admit_sweep, design_options
@@ -16,8 +16,6 @@ from service.formats.csv_table import sweep_csv_lines
 from service.pipeline.sweeps import design_items, sweep_results, sweep_size, sweep_worst_item
 from service.schemas.bulk import BatchRequest, BatchResult, SweepRequest, SweepResult
 from service.settings import Settings
-
-NDJSON_TYPE = "application/x-ndjson"
 
 
 def build_router(settings: Settings) -> APIRouter:

@@ -14,6 +14,7 @@ from service.schemas.transformers import MatchRequest
 
 TOUCHSTONE_TYPE = "application/x-touchstone"
 CSV_TYPE = "text/csv"
+NDJSON_TYPE = "application/x-ndjson"
 OutputFormat = Literal["json", "touchstone", "csv"]
 
 

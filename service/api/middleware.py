@@ -20,7 +20,7 @@ REQUEST_ID = re.compile(r"^[A-Za-z0-9._-]{1,64}$")
 OPEN_PATHS = ("/v1/health",)
 
 
-async def _send_error(send: Send, status: int, title: str, field: str, message: str, extra: list | None = None) -> None:
+async def send_error(send: Send, status: int, title: str, field: str, message: str, extra: list | None = None) -> None:
     body = ErrorBody(status=status, title=title, problems=[Problem(field=field, message=message)])
     payload = body.model_dump_json().encode()
     headers = [(b"content-type", b"application/json"), (b"content-length", str(len(payload)).encode())]
@@ -68,7 +68,7 @@ class BodyLimit:
                 await self._refuse(send)
 
     async def _refuse(self, send: Send) -> None:
-        await _send_error(send, 413, "body too large", "body", BodyTooLargeError(self.max_bytes).detail)
+        await send_error(send, 413, "body too large", "body", BodyTooLargeError(self.max_bytes).detail)
 
 
 class BodyTooLargeError(HTTPException):
@@ -96,7 +96,7 @@ class ApiKey:
             await self.app(scope, receive, send)
             return
         challenge = [(b"www-authenticate", b'Bearer realm="stepline"')]
-        await _send_error(send, 401, "unauthorized", "authorization", "a valid API key is required", challenge)
+        await send_error(send, 401, "unauthorized", "authorization", "a valid API key is required", challenge)
 
 
 def configure_access_log(enabled: bool) -> None:

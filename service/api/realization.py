@@ -10,6 +10,7 @@ from service.api.documented import error_responses
 from service.api.examples import request_examples
 from service.api.limits import admit_design, admit_yield, design_options
 from service.formats.svg import transformer_svg
+from service.pipeline.wording import count_text
 from service.schemas.items import DesignItem
 from service.schemas.tolerance import YieldRequest, YieldResult
 from service.settings import Settings
@@ -35,7 +36,7 @@ def build_router(settings: Settings) -> APIRouter:
         admit_design(item.model_dump(), settings)
         design = pipeline.design_item(item, options)
         outer = getattr(item.medium, "outer_diameter_m", None)
-        title = f"Stepline {item.method} transformer, {design.medium}, {len(design.sections)} sections"
+        title = f"Stepline {item.method} transformer, {design.medium}, {count_text(len(design.sections), 'section')}"
         return Response(transformer_svg(design, title, outer), media_type=SVG_TYPE)
 
     @router.post("/yield", response_model=YieldResult, summary="Monte Carlo yield under tolerances")

@@ -108,6 +108,17 @@ def _to_impedance(values: np.ndarray, options: _Options) -> np.ndarray:
     raise TouchstoneError(f"{options.parameter.upper()}-parameters do not describe a one-port load")
 
 
+def _refuse_multiport_line(tokens: int, line_number: int) -> None:
+    """A one-port data line holds a frequency and one complex value; more numbers on a line (9 on
+    each line of a two-port file) mean a multi-port file: say so instead of misreading it."""
+    if tokens > 3:
+        kind = "a two-port file (a frequency and four parameters)" if tokens == 9 else "a multi-port file"
+        raise TouchstoneError(
+            f"line {line_number} holds {tokens} numbers, as in {kind}; a load needs a one-port file (.s1p), "
+            "whose lines hold a frequency and one value"
+        )
+
+
 @lru_cache(maxsize=16)
 def read_one_port(text: str) -> OnePort:
     """Parse one-port Touchstone text; raises TouchstoneError naming the line at fault."""
@@ -125,7 +136,9 @@ def read_one_port(text: str) -> OnePort:
                 _parse_option_line(line[1:].split(), options, line_number)
                 seen_option_line = True
         else:
-            for token in line.split():
+            tokens = line.split()
+            _refuse_multiport_line(len(tokens), line_number)
+            for token in tokens:
                 try:
                     numbers.append(float(token))
                 except ValueError:

@@ -11,6 +11,7 @@ from service.errors import UnmeetableRequestError
 from service.pipeline.options import DesignOptions
 from service.pipeline.target import Target, target_for
 from service.pipeline.verify import PendingCheck, verify_one
+from service.pipeline.wording import count_text
 from service.schemas.bulk import DesignSummary
 from service.schemas.results import TransformerDesign
 from service.schemas.transformers import MatchRequest, QuarterWaveRequest, TransformerRequest
@@ -154,7 +155,7 @@ def design_to_spec(
         candidate = _verified_at(recipe, sections, (), options)
         if candidate.verified.meets_spec:
             extra = len(candidate.sections) - sections  # a rotating section, for a reactive load
-            asked = f"{theory_sections + extra} sections" + (" (with the rotating section)" if extra else "")
+            asked = count_text(theory_sections + extra, "section") + (" (with the rotating section)" if extra else "")
             note = (
                 f"The {recipe.theory} theory asks for {asked}; the exact cascade needed "
                 f"{len(candidate.sections)} to meet the spec."
@@ -169,7 +170,7 @@ def design_to_spec(
 def _best_found_note(recipe: SteppedRecipe, best: TransformerDesign | DesignSummary, at_ceiling: bool) -> str:
     count = len(best.sections)
     why = (
-        f"the search stops at {count} sections"
+        f"the search stops at {count_text(count, 'section')}"
         if at_ceiling
         else f"one more section lowered it by less than {MIN_GAIN_PER_SECTION:.0%}"
     )
@@ -179,8 +180,8 @@ def _best_found_note(recipe: SteppedRecipe, best: TransformerDesign | DesignSumm
         else ""
     )
     return (
-        f"The best this {recipe.method} design reaches is {best.verified.max_reflection:.4g} with {count} "
-        f"{'section' if count == 1 else 'sections'} ({why}); the spec {best.verified.spec_max_reflection:.4g} "
+        f"The best this {recipe.method} design reaches is {best.verified.max_reflection:.4g} with "
+        f"{count_text(count, 'section')} ({why}); the spec {best.verified.spec_max_reflection:.4g} "
         f"is not met.{bound}"
     )
 

@@ -14,3 +14,8 @@ def hz_text(frequency_hz: float) -> str:
 def percent_text(fraction: float) -> str:
     """0.7132 -> '71.3%'."""
     return f"{100.0 * fraction:.3g}%"
+
+
+def count_text(count: int, noun: str) -> str:
+    """(1, 'section') -> '1 section'; (3, 'section') -> '3 sections'."""
+    return f"{count} {noun}" if count == 1 else f"{count} {noun}s"
