@@ -43,8 +43,8 @@ class UnmeetableRequestError(Exception):
 
 
 class InvalidFieldError(UnmeetableRequestError):
-    """A field the schema accepted whose content turns out unreadable (a Touchstone text): a 422 like
-    any invalid input."""
+    """A field the schema accepted whose content turns out unreadable (a Touchstone text, a sweep
+    path that names no field): a 422 like any invalid input."""
 
     title = "invalid request"
 

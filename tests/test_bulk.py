@@ -185,8 +185,25 @@ def test_csv_sweep_parses(client):
     response = client.post("/v1/sweeps", json=SWEEP | {"output": "csv"})
     rows = list(csv.DictReader(io.StringIO(response.text)))
     assert len(rows) == 24
-    assert rows[5]["sections"] == "3" and rows[5]["section_count"] == "3"
+    assert rows[5]["vary.sections"] == "3" and rows[5]["section_count"] == "3"
+    header = response.text.splitlines()[0].split(",")
+    assert len(header) == len(set(header))  # unique column names
     assert all(float(r["max_reflection"]) > 0 for r in rows)
+
+
+def test_a_swept_medium_gets_its_own_column(client):
+    media = [{"kind": "ideal", "velocity_factor": 0.7}, {"kind": "coax", "eps_r": 2.1, "outer_diameter_m": 7e-3}]
+    response = client.post("/v1/sweeps", json=SWEEP | {"vary": {"medium": media}, "output": "csv"})
+    rows = list(csv.DictReader(io.StringIO(response.text)))
+    assert [row["medium"] for row in rows] == ["ideal", "coax"]
+    assert '"coax"' in rows[1]["vary.medium"]
+
+
+def test_a_vary_path_that_names_no_field_is_refused_before_any_design(client):
+    response = client.post("/v1/sweeps", json=SWEEP | {"vary": {"load.resistnce_ohm": [20, 30]}})
+    assert response.status_code == 422
+    problem = response.json()["problems"][0]
+    assert problem["field"] == "vary.load.resistnce_ohm" and "not a field" in problem["message"]
 
 
 def test_sweep_with_bad_points_reports_them_in_place(client):

@@ -12,8 +12,9 @@ from service.api.documented import error_responses
 from service.api.examples import request_examples
 from service.api.limits import admit_batch, admit_sizes, admit_sweep, design_options
 from service.api.scheduling import run_sized
+from service.errors import InvalidFieldError
 from service.formats.csv_table import sweep_csv_lines
-from service.pipeline.sweeps import design_items, sweep_results, sweep_size, sweep_worst_item
+from service.pipeline.sweeps import design_items, sweep_results, sweep_size, sweep_worst_item, unknown_axes
 from service.schemas.bulk import BatchRequest, BatchResult, SweepRequest, SweepResult
 from service.settings import Settings
 
@@ -47,6 +48,9 @@ def build_router(settings: Settings) -> APIRouter:
     )
     def sweep(request: Annotated[SweepRequest, Body(openapi_examples=sweep_examples)]) -> SweepResult | Response:
         """Expand the grid on the server and design every point, as JSON, CSV or streamed NDJSON."""
+        unknown = unknown_axes(request)
+        if unknown:
+            raise InvalidFieldError(unknown[0].field, unknown[0].message)
         total = sweep_size(request)
         admit_sweep(total, sweep_worst_item(request), settings)
         parameters = list(request.vary)

@@ -45,8 +45,11 @@ SWEEP_COLUMNS = [
 
 
 def sweep_csv_lines(parameters: list[str], results: Iterable[ItemResult]) -> Iterator[str]:
-    """A header line, then one line per design: its swept values (JSON for objects) and its figures."""
-    yield _csv_line(["index", *parameters, *SWEEP_COLUMNS])
+    """A header line, then one line per design: its swept values (JSON for objects) and its figures.
+
+    A swept value's column is named by its path with a `vary.` prefix (`vary.medium`), so no
+    column name repeats when a swept field is also one of the design's figures (`medium`)."""
+    yield _csv_line(["index", *(f"vary.{name}" for name in parameters), *SWEEP_COLUMNS])
     for result in results:
         values = [_cell(result.parameters.get(name)) for name in parameters]
         design, error = result.design, result.error

@@ -100,6 +100,23 @@ def sweep_items(request: SweepRequest) -> Iterator[tuple[dict[str, Any], dict[st
         yield parameters, item
 
 
+def unknown_axes(request: SweepRequest) -> list[Problem]:
+    """The `vary` paths that name no field of the request they change, found on the grid's first
+    point before any design is made (a typo would otherwise make every item a 422)."""
+    _, first = next(sweep_items(request))
+    try:
+        ITEM_ADAPTER.validate_python(first)
+    except ValidationError as exc:
+        unknown = {error["loc"] for error in exc.errors() if error.get("type") == "extra_forbidden"}
+        fields = {problem.field for problem in validation_problems([{"loc": loc} for loc in unknown])}
+        return [
+            Problem(field=f"vary.{path}", message=f"'{path}' is not a field of a {first.get('method')} request")
+            for path in request.vary
+            if path in fields
+        ]
+    return []
+
+
 def sweep_worst_item(request: SweepRequest) -> dict[str, Any]:
     """The base item with the largest valid swept section count, points and segments: the costliest
     design (values validation refuses cost nothing; their items get their own 422)."""
