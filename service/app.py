@@ -12,6 +12,7 @@ from fastapi.staticfiles import StaticFiles
 
 from service import __version__
 from service.api import bulk, health, networks, realization, transformers, web
+from service.api.documented import add_key_scheme
 from service.api.middleware import AccessLog, ApiKey, BodyLimit, configure_access_log
 from service.api.negotiation import FormatNegotiation
 from service.api.security import SecurityHeaders
@@ -72,7 +73,21 @@ def create_app(settings: Settings | None = None) -> FastAPI:
             allow_headers=["Content-Type", "Authorization"],
         )
     app.add_middleware(AccessLog)
+    if settings.api_key:
+        _declare_key(app)
     return app
+
+
+def _declare_key(app: FastAPI) -> None:
+    """Make the app's OpenAPI document state the bearer key its /v1 routes need."""
+    build = app.openapi
+
+    def openapi() -> dict:
+        if app.openapi_schema is None:
+            app.openapi_schema = add_key_scheme(build())
+        return app.openapi_schema
+
+    app.openapi = openapi
 
 
 app = create_app()

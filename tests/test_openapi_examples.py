@@ -4,9 +4,11 @@ import json
 from pathlib import Path
 
 import pytest
+from fastapi.testclient import TestClient
 
+from service.app import create_app
 from service.schemas import bulk, comparison, results, tolerance
-from service.settings import PROJECT_ROOT
+from service.settings import PROJECT_ROOT, Settings
 
 RESULT_MODELS = {
     name: getattr(module, name)
@@ -47,3 +49,22 @@ def test_example_is_documented_and_works(client, path):
 def test_health(client):
     body = client.get("/v1/health").json()
     assert body["status"] == "ok" and body["version"]
+
+
+def test_the_schema_is_valid_openapi_3_and_describes_every_field():
+    # openapi-spec-validator checks the document against the OpenAPI 3.1 specification's schema.
+    from openapi_spec_validator import validate
+
+    for settings in (Settings(access_log=False), Settings(access_log=False, api_key="bench-key")):
+        schema = TestClient(create_app(settings)).get("/openapi.json").json()
+        validate(schema)
+        undescribed = [
+            f"{name}.{field}"
+            for name, model in schema["components"]["schemas"].items()
+            for field, body in model.get("properties", {}).items()
+            if "description" not in body
+        ]
+        assert undescribed == []
+        design = schema["paths"]["/v1/transformers/chebyshev"]["post"]
+        assert {"401", "406", "413", "422"} <= set(design["responses"])
+        assert ("security" in design) == bool(settings.api_key)

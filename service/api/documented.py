@@ -8,10 +8,26 @@ from service.schemas.errors import ErrorBody
 
 
 def error_responses() -> dict[int | str, dict[str, Any]]:
-    """The error statuses every design endpoint may answer, in the one error shape."""
-    return {
-        422: {
-            "model": ErrorBody,
-            "description": "Invalid or unmeetable request; each problem names its field.",
-        },
+    """The error statuses every /v1 design route may answer, each in the one error shape."""
+    described = {
+        401: "A key is set on this server and the request lacks `Authorization: Bearer <key>`.",
+        406: "The route cannot answer in the format asked for (?format= or Accept); the message names those it has.",
+        413: "The body is larger than the server accepts.",
+        422: "Invalid or unmeetable request; each problem names its field.",
+        500: "An unexpected error (never intended; reported in the same shape).",
     }
+    return {status: {"model": ErrorBody, "description": text} for status, text in described.items()}
+
+
+def add_key_scheme(schema: dict[str, Any]) -> dict[str, Any]:
+    """Declare the bearer key in an OpenAPI document, as required by every /v1 route but health."""
+    schema.setdefault("components", {}).setdefault("securitySchemes", {})["apiKey"] = {
+        "type": "http",
+        "scheme": "bearer",
+        "description": "The key the operator set in STEPLINE_API_KEY.",
+    }
+    for path, operations in schema.get("paths", {}).items():
+        if path.startswith("/v1/") and path != "/v1/health":
+            for operation in operations.values():
+                operation["security"] = [{"apiKey": []}]
+    return schema

@@ -3,13 +3,13 @@
 from __future__ import annotations
 
 from fastapi import APIRouter
-from pydantic import BaseModel
 
 from service import __version__
+from service.schemas.glossary import DescribedModel
 from service.settings import Settings
 
 
-class Health(BaseModel):
+class Health(DescribedModel):
     """The service is up, which version answers, and whether the API needs a key."""
 
     status: str

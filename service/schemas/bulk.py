@@ -5,11 +5,12 @@ from __future__ import annotations
 from collections.abc import Mapping
 from typing import Annotated, Any, Literal
 
-from pydantic import BaseModel, Field, model_validator
+from pydantic import Field, model_validator
 
 from service.constants import DEFAULT_MAX_SWEEP_DESIGNS
 from service.schemas.common import StrictModel
 from service.schemas.errors import ErrorBody
+from service.schemas.glossary import DescribedModel
 from service.schemas.results import PredictedFigures, ResponseCurve, SectionResult, VerifiedFigures
 
 
@@ -20,7 +21,7 @@ class BatchRequest(StrictModel):
     include_curves: bool = Field(False, description="Add each design's response curve to its summary.")
 
 
-class DesignSummary(BaseModel):
+class DesignSummary(DescribedModel):
     """The parts of a design a table needs; the curve only on request."""
 
     method: str
@@ -44,7 +45,7 @@ class DesignSummary(BaseModel):
         return cls(**shown | {"response": shown["response"] if include_curve else None})
 
 
-class ItemResult(BaseModel):
+class ItemResult(DescribedModel):
     """One item's outcome: a design summary (status 200) or an error in the API's error shape (4xx)."""
 
     index: int
@@ -54,7 +55,7 @@ class ItemResult(BaseModel):
     parameters: dict[str, Any] | None = Field(None, description="For sweeps: the swept values of this design.")
 
 
-class BatchResult(BaseModel):
+class BatchResult(DescribedModel):
     """Every item's outcome, in the order of the request."""
 
     results: list[ItemResult]
@@ -98,7 +99,7 @@ class SweepRequest(StrictModel):
         return self
 
 
-class SweepResult(BaseModel):
+class SweepResult(DescribedModel):
     """The whole sweep as one JSON document."""
 
     total: int

@@ -4,9 +4,10 @@ from __future__ import annotations
 
 from typing import Annotated
 
-from pydantic import BaseModel, ConfigDict, Field, ValidationInfo, field_validator
+from pydantic import ConfigDict, Field, ValidationInfo, field_validator
 
 from service.constants import MAX_POINTS
+from service.schemas.glossary import DescribedModel, describe_fields
 
 MIN_IMPEDANCE_OHM = 1e-3
 MAX_IMPEDANCE_OHM = 1e5
@@ -63,10 +64,10 @@ MaxVswr = Annotated[
 ]
 
 
-class StrictModel(BaseModel):
+class StrictModel(DescribedModel):
     """Base for every request: no type coercion, no NaN or infinity, no unknown fields."""
 
-    model_config = ConfigDict(strict=True, allow_inf_nan=False, extra="forbid")
+    model_config = ConfigDict(strict=True, allow_inf_nan=False, extra="forbid", json_schema_extra=describe_fields)
 
 
 class Band(StrictModel):

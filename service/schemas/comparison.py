@@ -2,9 +2,10 @@
 
 from __future__ import annotations
 
-from pydantic import BaseModel, Field
+from pydantic import Field
 
 from service.constants import DEFAULT_SEGMENTS, MAX_SECTIONS, MAX_SEGMENTS
+from service.schemas.glossary import DescribedModel
 from service.schemas.results import TransformerDesign, VerifiedFigures
 from service.schemas.transformers import SynthesisRequest
 
@@ -22,7 +23,7 @@ class CompareRequest(SynthesisRequest):
     taper_segments: int = Field(DEFAULT_SEGMENTS, ge=2, le=MAX_SEGMENTS)
 
 
-class Candidate(BaseModel):
+class Candidate(DescribedModel):
     """One design in the ranking."""
 
     rank: int = Field(description="1 is best: meets the spec with the shortest line.")
@@ -36,7 +37,7 @@ class Candidate(BaseModel):
     design: TransformerDesign
 
 
-class Excluded(BaseModel):
+class Excluded(DescribedModel):
     """A method that could not give a design for this request, and why."""
 
     method: str
@@ -45,7 +46,7 @@ class Excluded(BaseModel):
     reason: str
 
 
-class Comparison(BaseModel):
+class Comparison(DescribedModel):
     """All designs ranked: those meeting the spec first, then by total length, then by reflection."""
 
     spec_max_reflection: float

@@ -2,17 +2,19 @@
 
 from __future__ import annotations
 
-from pydantic import BaseModel, Field
+from pydantic import Field
+
+from service.schemas.glossary import DescribedModel
 
 
-class Problem(BaseModel):
+class Problem(DescribedModel):
     """One thing wrong with a request."""
 
     field: str = Field(description="Dotted path of the offending field, e.g. band.stop_hz.")
     message: str = Field(description="What is wrong, in plain words.")
 
 
-class ErrorBody(BaseModel):
+class ErrorBody(DescribedModel):
     """Every 4xx (and the 5xx that must never happen) carries this body."""
 
     status: int

@@ -2,10 +2,12 @@
 
 from __future__ import annotations
 
-from pydantic import BaseModel, Field
+from pydantic import Field
+
+from service.schemas.glossary import DescribedModel
 
 
-class SectionResult(BaseModel):
+class SectionResult(DescribedModel):
     """One line section, listed from the source side to the load side."""
 
     impedance_ohm: float = Field(description="Characteristic impedance of the section at the band centre.")
@@ -16,14 +18,14 @@ class SectionResult(BaseModel):
     inner_diameter_m: float | None = Field(None, description="Inner conductor diameter, for coax.")
 
 
-class JunctionResult(BaseModel):
+class JunctionResult(DescribedModel):
     """The step between two consecutive impedances (source, sections ..., load)."""
 
     reflection: float = Field(description="(Z_next - Z_prev) / (Z_next + Z_prev).")
     transmission: float = Field(description="1 + reflection, the voltage transmission coefficient.")
 
 
-class PredictedFigures(BaseModel):
+class PredictedFigures(DescribedModel):
     """What the synthesis theory predicts, before any exact check."""
 
     max_reflection: float = Field(description="Largest |reflection| over the band by the theory.")
@@ -42,7 +44,7 @@ class PredictedFigures(BaseModel):
     )
 
 
-class VerifiedFigures(BaseModel):
+class VerifiedFigures(DescribedModel):
     """Figures from the exact ABCD cascade over the requested band."""
 
     max_reflection: float
@@ -60,7 +62,7 @@ class VerifiedFigures(BaseModel):
     )
 
 
-class ResponseCurve(BaseModel):
+class ResponseCurve(DescribedModel):
     """The exact response at `points` frequencies spread evenly over the band."""
 
     frequency_hz: list[float]
@@ -71,7 +73,7 @@ class ResponseCurve(BaseModel):
     )
 
 
-class BodeFanoFigures(BaseModel):
+class BodeFanoFigures(DescribedModel):
     """The Bode-Fano limit for an R-C or R-L load, beside what the line achieves."""
 
     min_reflection: float = Field(
@@ -81,7 +83,7 @@ class BodeFanoFigures(BaseModel):
     spec_beats_bound: bool = Field(description="True when the spec asks for less than any network can give.")
 
 
-class RefinementFigures(BaseModel):
+class RefinementFigures(DescribedModel):
     """The exact figures before and after the minimax refinement of the sections."""
 
     before: VerifiedFigures
@@ -89,7 +91,7 @@ class RefinementFigures(BaseModel):
     iterations: int
 
 
-class AnalysisResult(BaseModel):
+class AnalysisResult(DescribedModel):
     """The exact cascade's verdict on a list of sections."""
 
     center_hz: float

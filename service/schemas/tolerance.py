@@ -4,10 +4,11 @@ from __future__ import annotations
 
 from typing import Annotated
 
-from pydantic import BaseModel, Field
+from pydantic import Field
 
 from service.constants import MAX_TRIALS
 from service.schemas.common import StrictModel
+from service.schemas.glossary import DescribedModel
 from service.schemas.items import DesignItem
 from service.schemas.results import TransformerDesign
 
@@ -32,7 +33,7 @@ class YieldRequest(StrictModel):
     seed: int = Field(0, ge=0, le=2**63 - 1, description="Seed of the random draws; the same seed repeats the result.")
 
 
-class Percentiles(BaseModel):
+class Percentiles(DescribedModel):
     """Percentiles of the trials' worst in-band reflection."""
 
     p50: float
@@ -41,7 +42,7 @@ class Percentiles(BaseModel):
     p99: float
 
 
-class YieldResult(BaseModel):
+class YieldResult(DescribedModel):
     """The nominal design and how its copies fared."""
 
     design: TransformerDesign
