@@ -21,6 +21,7 @@ REFINE_POINTS = 17  # per peak, spanning the neighbours of its best coarse sampl
 REFINE_OFFSETS = np.linspace(-1.0, 1.0, REFINE_POINTS)  # in steps of the coarse grid
 FINE_STEP = 2.0 / (REFINE_POINTS - 1)  # the fine grid's step, in steps of the coarse grid
 PEAKS_REFINED = 6
+TIE_TOLERANCE = 1e-9  # peaks this close (relative) to the largest are a tie, named by the lowest frequency
 RETURN_LOSS_CAP_DB = 300.0
 
 
@@ -104,8 +105,12 @@ def worst_reflections(line: LineCascade, grid: np.ndarray, values: np.ndarray) -
     sampled, sampled_at = fine_values[rows, peak_axis, best], fine[rows, peak_axis, best]
     better = vertex_values > sampled
     worst, centre = np.where(better, vertex_values, sampled), np.where(better, vertex, sampled_at)
-    index = worst.argmax(axis=-1)[:, None]
-    return worst[rows, index][:, 0].reshape(lead), centre[rows, index][:, 0].reshape(lead)
+    # Ties: peaks within TIE_TOLERANCE of the largest count as equal, and the lowest frequency
+    # among them is named, so equal-ripple designs report the same frequency however they round.
+    largest = worst.max(axis=-1, keepdims=True)
+    tied = worst >= largest * (1.0 - TIE_TOLERANCE)
+    index = np.where(tied, centre, np.inf).argmin(axis=-1)[:, None]
+    return largest[:, 0].reshape(lead), centre[rows, index][:, 0].reshape(lead)
 
 
 def _within(values: np.ndarray, low: np.ndarray | float, high: np.ndarray | float) -> np.ndarray:
