@@ -4,8 +4,11 @@ import copy
 import json
 import xml.etree.ElementTree as ET
 
+import numpy as np
 import pytest
 import scipy.stats
+import skrf
+from skrf.media import MLine
 
 from service.settings import PROJECT_ROOT
 
@@ -128,3 +131,44 @@ def test_shipped_yield_example_runs(client):
         item=example["value"]["design"],
     )
     assert 0.0 < result["yield_fraction"] <= 1.0
+
+
+def test_worst_trial_is_reported_with_what_it_drew(client):
+    result = yield_of(client, {"width_m": 60e-6, "eps_r": 0.15}, trials=300)
+    worst = result["worst_trial"]
+    assert worst["max_reflection"] == result["worst_max_reflection"]
+    assert len(worst["section_geometry_m"]) == len(result["design"]["sections"])
+    assert 0 <= worst["index"] < 300
+    assert result["clipped_draws"] == {"eps_r": 0, "height_m": 0, "geometry": 0}
+    # Rebuilt from what it drew with scikit-rf's MLine (Hammerstad-Jensen, Kirschning-Jansen; the
+    # models this service follows), the worst trial reflects what the report says.
+    board = ITEM["medium"]
+    frequency = skrf.Frequency(2.0, 4.0, 201, unit="GHz")
+    lines = [
+        MLine(
+            frequency=frequency,
+            z0_port=50,
+            w=w,
+            h=worst["height_m"],
+            t=board["thickness_m"],
+            ep_r=worst["eps_r"],
+            model="hammerstadjensen",
+            disp="kirschningjansen",
+            diel="frequencyinvariant",
+            tand=0,
+            rough=0,
+        ).line(section["length_m"], "m")
+        for w, section in zip(worst["section_geometry_m"], result["design"]["sections"], strict=True)
+    ]
+    a = skrf.network.cascade_list(lines).a
+    load = ITEM["load"]["resistance_ohm"]
+    z_in = (a[:, 0, 0] * load + a[:, 0, 1]) / (a[:, 1, 0] * load + a[:, 1, 1])
+    assert np.max(np.abs((z_in - 50) / (z_in + 50))) == pytest.approx(worst["max_reflection"], rel=0.02)
+
+
+def test_draws_held_at_a_physical_floor_are_counted(client):
+    # eps_r 3.66 with a sigma of 2: about 9% of draws fall below 1 (normal tail, P(Z < -1.33)).
+    result = yield_of(client, {"eps_r": 2.0}, trials=2000)
+    clipped = result["clipped_draws"]["eps_r"]
+    assert 0.07 * 2000 < clipped < 0.11 * 2000
+    assert "clipped_draws" in result["method"]

@@ -39,6 +39,8 @@ class YieldFigures:
     passing: int
     worst_reflections: np.ndarray
     nominal_worst: float
+    clipped: dict[str, int]  # draws held at a physical floor, per quantity (eps_r, height_m, geometry)
+    worst_trial: dict[str, object]  # the parameters of the trial with the largest worst reflection
 
     @property
     def fraction(self) -> float:
@@ -72,10 +74,19 @@ def monte_carlo(
     sections = line.geometry.size
     width_errors = rng.standard_normal((trials, sections)) * tolerances.width_m
     bias = rng.standard_normal((trials, 1)) * tolerances.etch_bias_m
-    eps_r = np.maximum(medium.eps_r + rng.standard_normal(trials) * tolerances.eps_r, 1.0)
+    drawn_eps_r = medium.eps_r + rng.standard_normal(trials) * tolerances.eps_r
     nominal_height = getattr(medium, "height_m", getattr(medium, "ground_spacing_m", 1.0))
-    height = np.maximum(nominal_height + rng.standard_normal(trials) * tolerances.height_m, 0.01 * nominal_height)
-    geometry = np.maximum(line.geometry + width_errors + bias, 0.01 * line.geometry)
+    drawn_height = nominal_height + rng.standard_normal(trials) * tolerances.height_m
+    drawn_geometry = line.geometry + width_errors + bias
+    # Physical floors: a permittivity below vacuum's, a board or strip thinner than 1% of nominal.
+    eps_r = np.maximum(drawn_eps_r, 1.0)
+    height = np.maximum(drawn_height, 0.01 * nominal_height)
+    geometry = np.maximum(drawn_geometry, 0.01 * line.geometry)
+    clipped = {
+        "eps_r": int(np.count_nonzero(drawn_eps_r < 1.0)),
+        "height_m": int(np.count_nonzero(drawn_height < 0.01 * nominal_height)),
+        "geometry": int(np.count_nonzero(drawn_geometry < 0.01 * line.geometry)),
+    }
     worst = np.empty(trials)
     for start in range(0, trials, CHUNK_TRIALS):
         chunk = slice(start, min(start + CHUNK_TRIALS, trials))
@@ -84,4 +95,13 @@ def monte_carlo(
         worst[chunk] = np.max(trial_line.reflection(frequency_hz), axis=-1)
     nominal = float(np.max(line.reflection(frequency_hz)))
     passing = int(np.count_nonzero(worst <= spec_reflection * (1.0 + 1e-9)))
-    return YieldFigures(trials, passing, worst, nominal)
+    index = int(np.argmax(worst))
+    worst_trial = {
+        "index": index,
+        "max_reflection": float(worst[index]),
+        "eps_r": float(eps_r[index]),
+        "height_m": float(height[index]),
+        "etch_bias_m": float(bias[index, 0]),
+        "section_geometry_m": geometry[index].tolist(),
+    }
+    return YieldFigures(trials, passing, worst, nominal, clipped, worst_trial)

@@ -12,13 +12,14 @@ from service.pipeline.exports import design_line
 from service.pipeline.items import design_item
 from service.pipeline.options import DesignOptions
 from service.pipeline.request_models import medium_model
-from service.schemas.tolerance import Percentiles, YieldRequest, YieldResult
+from service.schemas.tolerance import ClippedDraws, Percentiles, WorstTrial, YieldRequest, YieldResult
 
 METHOD_NOTE = (
     "Monte Carlo: each trial draws normal errors (per-section width, board-wide etch bias, "
     "permittivity and substrate height) and is evaluated by the exact cascade at the grid "
-    "frequencies; a trial passes when its worst reflection there meets the spec. The standard "
-    "error is sqrt(p (1 - p) / N)."
+    "frequencies; a trial passes when its worst reflection there meets the spec. Draws below a "
+    "physical floor (eps_r 1, 1% of a nominal height or width) are held there and counted in "
+    "clipped_draws. The standard error is sqrt(p (1 - p) / N)."
 )
 
 
@@ -45,6 +46,8 @@ def yield_analysis(request: YieldRequest, options: DesignOptions | None = None) 
         interval_95=figures.interval_95,
         nominal_max_reflection=figures.nominal_worst,
         worst_max_reflection=float(np.max(figures.worst_reflections)),
+        worst_trial=WorstTrial(**figures.worst_trial),
+        clipped_draws=ClippedDraws(**figures.clipped),
         percentiles=Percentiles(p50=p50, p90=p90, p95=p95, p99=p99),
         grid_points=YIELD_GRID_POINTS,
         method=METHOD_NOTE,

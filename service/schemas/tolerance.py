@@ -42,6 +42,27 @@ class Percentiles(DescribedModel):
     p99: float
 
 
+class ClippedDraws(DescribedModel):
+    """How many random draws were held at a physical floor instead of their drawn value."""
+
+    eps_r: int = Field(description="Permittivities drawn below 1 (vacuum), held at 1.")
+    height_m: int = Field(description="Substrate heights drawn below 1% of nominal, held there.")
+    geometry: int = Field(description="Section widths or diameters drawn below 1% of nominal, held there.")
+
+
+class WorstTrial(DescribedModel):
+    """The trial with the largest worst in-band reflection, and what it drew."""
+
+    index: int = Field(description="Its position among the trials, from 0 (repeatable with the seed).")
+    max_reflection: float = Field(description="Its worst in-band |reflection|.")
+    eps_r: float = Field(description="Its board permittivity.")
+    height_m: float = Field(description="Its substrate height (stripline: ground spacing; unused in coax).")
+    etch_bias_m: float = Field(description="Its etch bias, common to all sections.")
+    section_geometry_m: list[float] = Field(
+        description="Each section's width (inner diameter in coax) in that trial, source side first."
+    )
+
+
 class YieldResult(DescribedModel):
     """The nominal design and how its copies fared."""
 
@@ -54,6 +75,8 @@ class YieldResult(DescribedModel):
     interval_95: tuple[float, float] = Field(description="Wilson 95% interval of the yield.")
     nominal_max_reflection: float = Field(description="The nominal design's worst reflection on the same grid.")
     worst_max_reflection: float = Field(description="The worst trial's worst in-band reflection.")
+    worst_trial: WorstTrial
+    clipped_draws: ClippedDraws
     percentiles: Percentiles
     grid_points: int = Field(description="Frequencies over the band at which each trial is evaluated.")
     method: str = Field(description="How the yield was estimated, in words.")
