@@ -6,8 +6,12 @@ Which error becomes which answer (all in the shape of schemas/errors.py):
     UnmeetableRequestError (valid, but cannot be met)  -> 422 "request cannot be met"
       InvalidFieldError (a field unreadable past the schema, e.g. Touchstone text)
                                                        -> 422 "invalid request"
+    ComputeTimeoutError (accepted work past the hard deadline, its worker stopped)
+                                                       -> 503 "computation stopped"
     HTTPException 400 / 404 / 405 / 413 (starlette)    -> that status (413: body over the size limit)
-    401 (missing or wrong API key)                     -> answered by api/middleware.py in the same shape
+    401 (missing or wrong API key), 406 (a format the route lacks)
+                                                       -> answered by api/middleware.py and
+                                                          api/negotiation.py in the same shape
     any other Exception (a bug)                        -> 500 "internal error", logged; no input should reach it
 
 Errors raised by the layers below (synthesis.InfeasibleDesignError, physics.media.RealizationError)
@@ -40,6 +44,18 @@ class UnmeetableRequestError(Exception):
         self.message = message
 
     title = "request cannot be met"
+
+    def __reduce__(self) -> tuple:
+        """Pickle by field and message: the error crosses from a worker process to the server."""
+        return type(self), (self.field, self.message)
+
+
+class ComputeTimeoutError(Exception):
+    """Accepted work that ran past the hard deadline and was stopped: a 503."""
+
+    def __init__(self, deadline_s: float) -> None:
+        super().__init__(deadline_s)
+        self.deadline_s = deadline_s
 
 
 class InvalidFieldError(UnmeetableRequestError):
@@ -119,6 +135,14 @@ def install_error_handlers(app: FastAPI) -> None:
     async def _unmeetable(_: Request, exc: UnmeetableRequestError) -> JSONResponse:
         problem = Problem(field=exc.field, message=exc.message)
         return error_response(422, exc.title, [problem])
+
+    @app.exception_handler(ComputeTimeoutError)
+    async def _timed_out(_: Request, exc: ComputeTimeoutError) -> JSONResponse:
+        message = (
+            f"the computation ran past this server's limit of {exc.deadline_s:g} s and was stopped; "
+            "split the request or ask for less (fewer sections, points or trials)"
+        )
+        return error_response(503, "computation stopped", [Problem(field="request", message=message)])
 
     @app.exception_handler(HTTPException)
     async def _http(_: Request, exc: HTTPException) -> JSONResponse:

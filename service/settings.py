@@ -35,6 +35,7 @@ class Settings:
     max_sweep_designs: int = DEFAULT_MAX_SWEEP_DESIGNS
     compute_budget_s: float = 20.0  # estimated compute one request may take, in seconds
     access_log: bool = True  # one JSON line per request on standard output
+    deadline_s: float = 40.0  # accepted work still running after this is stopped (503)
 
     @classmethod
     def from_env(cls, environ: dict[str, str] | None = None) -> Settings:

@@ -1,5 +1,6 @@
 """Batches and sweeps of designs."""
 
+import functools
 import json
 from collections.abc import Iterator
 from typing import Annotated
@@ -14,7 +15,7 @@ from service.api.limits import admit_batch, admit_sizes, admit_sweep, design_opt
 from service.api.scheduling import run_sized
 from service.errors import InvalidFieldError
 from service.formats.csv_table import sweep_csv_lines
-from service.pipeline.sweeps import design_items, sweep_results, sweep_size, sweep_worst_item, unknown_axes
+from service.pipeline.sweeps import batch_result, sweep_results, sweep_size, sweep_worst_item, unknown_axes
 from service.schemas.bulk import BatchRequest, BatchResult, SweepRequest, SweepResult
 from service.settings import Settings
 
@@ -23,8 +24,7 @@ def build_router(settings: Settings) -> APIRouter:
     """The /v1/batch and /v1/sweeps routes."""
     options = design_options(settings)
 
-    def admit(item: dict) -> None:
-        admit_sizes(item, settings)
+    admit = functools.partial(admit_sizes, settings=settings)  # picklable, for the worker processes
 
     router = APIRouter(prefix="/v1", tags=["bulk"], responses=error_responses())
     batch_examples = request_examples(settings.examples_dir, "batch")
@@ -34,11 +34,8 @@ def build_router(settings: Settings) -> APIRouter:
     async def batch(request: Annotated[BatchRequest, Body(openapi_examples=batch_examples)]) -> Response:
         """Each item is validated and designed on its own; results come back in order, errors at their index."""
         seconds = admit_batch(request.requests, settings)
-
-        def work() -> BatchResult:
-            return BatchResult(results=design_items(request.requests, request.include_curves, options, admit))
-
-        return json_response(await run_sized(work, seconds))
+        arguments = (request.requests, request.include_curves, options, admit)
+        return json_response(await run_sized(batch_result, arguments, seconds, settings.deadline_s))
 
     @router.post(
         "/sweeps",

@@ -137,12 +137,14 @@ def admit_designs(items: list[dict[str, Any]], settings: Settings) -> float:
     return seconds
 
 
-def admit_yield(design: dict[str, Any], trials: int, settings: Settings) -> None:
-    """Sizes, trial count and budget of a yield analysis."""
+def admit_yield(design: dict[str, Any], trials: int, settings: Settings) -> float:
+    """Sizes, trial count and budget of a yield analysis; its estimated seconds."""
     admit_sizes(design, settings, "design.")
     if trials > settings.max_trials:
         raise UnmeetableRequestError("trials", f"at most {settings.max_trials} allowed on this server")
-    admit_budget(yield_seconds(design, trials), settings, "trials")
+    seconds = yield_seconds(design, trials)
+    admit_budget(seconds, settings, "trials")
+    return seconds
 
 
 def admit_batch(items: list[Any], settings: Settings) -> float:

@@ -32,7 +32,7 @@ def build_router(settings: Settings) -> APIRouter:
     ) -> Response:
         """Verify a list of sections (e.g. a design rounded to buildable impedances) by the exact cascade."""
         seconds = admit_design(request.model_dump() | {"sections": len(request.sections)}, settings)
-        result = await run_sized(lambda: pipeline.analyze(request, options), seconds)
+        result = await run_sized(pipeline.analyze, (request, options), seconds, settings.deadline_s)
         return deliver(request, result, output_format(format, http), "analysis")
 
     return router

@@ -6,9 +6,11 @@ from fastapi import APIRouter, Body
 from fastapi.responses import Response
 
 from service import pipeline
+from service.api.delivery import json_response
 from service.api.documented import error_responses
 from service.api.examples import request_examples
 from service.api.limits import admit_design, admit_yield, design_options
+from service.api.scheduling import run_sized
 from service.formats.svg import transformer_svg
 from service.pipeline.wording import count_text
 from service.schemas.items import DesignItem
@@ -40,9 +42,10 @@ def build_router(settings: Settings) -> APIRouter:
         return Response(transformer_svg(design, title, outer), media_type=SVG_TYPE)
 
     @router.post("/yield", response_model=YieldResult, summary="Monte Carlo yield under tolerances")
-    def tolerance_yield(request: Annotated[YieldRequest, Body(openapi_examples=yield_examples)]) -> YieldResult:
+    async def tolerance_yield(request: Annotated[YieldRequest, Body(openapi_examples=yield_examples)]) -> Response:
         """Design, then perturb widths, etch, permittivity and height over seeded trials."""
-        admit_yield(request.design.model_dump(), request.trials, settings)
-        return pipeline.yield_analysis(request, options)
+        seconds = admit_yield(request.design.model_dump(), request.trials, settings)
+        analysis = await run_sized(pipeline.yield_analysis, (request, options), seconds, settings.deadline_s)
+        return json_response(analysis)
 
     return router

@@ -7,7 +7,7 @@ from fastapi import APIRouter, Body, Request
 from fastapi.responses import Response
 
 from service import pipeline
-from service.api.delivery import FormatQuery, deliver, export_responses, output_format
+from service.api.delivery import FormatQuery, deliver, export_responses, json_response, output_format
 from service.api.documented import error_responses
 from service.api.examples import request_examples
 from service.api.limits import admit_design, admit_designs, design_options
@@ -66,7 +66,7 @@ def build_router(settings: Settings) -> APIRouter:
         ) -> Response:
             seconds = admit_design(request.model_dump(), settings)
             name = f"{request.profile}-taper" if path == "taper" else path
-            result = await run_sized(lambda: design(request, options), seconds)
+            result = await run_sized(design, (request, options), seconds, settings.deadline_s)
             return deliver(request, result, output_format(format, http), name)
 
         router.add_api_route(
@@ -86,9 +86,9 @@ def build_router(settings: Settings) -> APIRouter:
     compare_examples = request_examples(settings.examples_dir, "transformers/compare")
 
     @router.post("/compare", response_model=Comparison, summary="Every method side by side")
-    def compare(request: Annotated[CompareRequest, Body(openapi_examples=compare_examples)]) -> Comparison:
+    async def compare(request: Annotated[CompareRequest, Body(openapi_examples=compare_examples)]) -> Response:
         """All applicable methods and theories for one request, ranked for meeting the spec shortest."""
-        admit_designs(pipeline.compare_items(request), settings)
-        return pipeline.compare(request, options)
+        seconds = admit_designs(pipeline.compare_items(request), settings)
+        return json_response(await run_sized(pipeline.compare, (request, options), seconds, settings.deadline_s))
 
     return router

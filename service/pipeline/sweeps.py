@@ -15,7 +15,7 @@ from service.constants import MAX_POINTS, MAX_SECTIONS, MAX_SEGMENTS
 from service.errors import UnmeetableRequestError, validation_problems
 from service.pipeline.batch import design_batch
 from service.pipeline.options import DesignOptions
-from service.schemas.bulk import DesignSummary, ItemResult, SweepRequest, ValueRange
+from service.schemas.bulk import BatchResult, DesignSummary, ItemResult, SweepRequest, ValueRange
 from service.schemas.errors import ErrorBody, Problem
 from service.schemas.items import DesignItem
 from service.schemas.results import TransformerDesign
@@ -53,6 +53,11 @@ def design_items(
         else:
             results[position] = ItemResult(index=offset + position, status=200, design=summary(outcome, include_curves))
     return results
+
+
+def batch_result(raw_items: list[Any], include_curves: bool, options: DesignOptions, admit: Admission) -> BatchResult:
+    """The whole batch's answer (a module-level function, so a worker process can run it)."""
+    return BatchResult(results=design_items(raw_items, include_curves, options, admit))
 
 
 def _unmeetable(index: int, exc: UnmeetableRequestError) -> ItemResult:

@@ -74,6 +74,8 @@ GLOSSARY = {
     "verified": "Figures from the exact ABCD cascade over the band.",
     "version": "The service's version.",
     "warnings": "Plain sentences about anything worth a second look.",
+    "worst_trial": "The trial with the largest worst in-band reflection, and what it drew.",
+    "clipped_draws": "How many random draws were held at a physical floor instead of their drawn value.",
     "min_reflection": "The Bode-Fano bound: the lowest constant in-band |reflection| any lossless network reaches.",
 }
 
