@@ -66,5 +66,5 @@ def test_the_schema_is_valid_openapi_3_and_describes_every_field():
         ]
         assert undescribed == []
         design = schema["paths"]["/v1/transformers/chebyshev"]["post"]
-        assert {"401", "406", "413", "422"} <= set(design["responses"])
+        assert {"401", "406", "413", "422", "503"} <= set(design["responses"])
         assert ("security" in design) == bool(settings.api_key)

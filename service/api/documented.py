@@ -15,6 +15,7 @@ def error_responses() -> dict[int | str, dict[str, Any]]:
         413: "The body is larger than the server accepts.",
         422: "Invalid or unmeetable request; each problem names its field.",
         500: "An unexpected error (never intended; reported in the same shape).",
+        503: "Accepted work ran past the server's deadline (STEPLINE_DEADLINE_S) and was stopped.",
     }
     return {status: {"model": ErrorBody, "description": text} for status, text in described.items()}
 
