@@ -177,10 +177,16 @@ def endpoints_side_by_side(rounds: int = 7, per_round: int = 300) -> None:
 
 
 def cpu_seconds(pid: int) -> float:
-    """User plus system CPU time the process has used so far."""
+    """User plus system CPU time the process and its live children (the compute workers) have used."""
     with open(f"/proc/{pid}/stat") as stat:
         fields = stat.read().rsplit(")", 1)[1].split()
-    return (int(fields[11]) + int(fields[12])) / os.sysconf("SC_CLK_TCK")
+    own = (int(fields[11]) + int(fields[12])) / os.sysconf("SC_CLK_TCK")
+    try:
+        with open(f"/proc/{pid}/task/{pid}/children") as listing:
+            children = [int(child) for child in listing.read().split()]
+    except OSError:
+        children = []
+    return own + sum(cpu_seconds(child) for child in children)
 
 
 def batch_against_singles(rounds: int = 3) -> None:

@@ -218,3 +218,11 @@ def test_sweep_grid_limit_is_a_setting():
     response = limited.post("/v1/sweeps", json=SWEEP)
     assert response.status_code == 422
     assert response.json()["problems"][0]["field"] == "vary"
+
+
+def test_a_sweep_sliced_by_offset_and_limit_equals_the_whole(client):
+    whole = client.post("/v1/sweeps", json=SWEEP).json()
+    parts = [client.post("/v1/sweeps", json=SWEEP | {"offset": o, "limit": 10}).json() for o in (0, 10, 20)]
+    assert all(part["total"] == whole["total"] == 24 for part in parts)
+    assert [r for part in parts for r in part["results"]] == whole["results"]
+    assert [r["index"] for r in parts[2]["results"]] == [20, 21, 22, 23]

@@ -15,7 +15,14 @@ from service.api.limits import admit_batch, admit_sizes, admit_sweep, design_opt
 from service.api.scheduling import run_sized
 from service.errors import InvalidFieldError
 from service.formats.csv_table import sweep_csv_lines
-from service.pipeline.sweeps import batch_result, sweep_results, sweep_size, sweep_worst_item, unknown_axes
+from service.pipeline.sweeps import (
+    batch_result,
+    sweep_results,
+    sweep_size,
+    sweep_slice_size,
+    sweep_worst_item,
+    unknown_axes,
+)
 from service.schemas.bulk import BatchRequest, BatchResult, SweepRequest, SweepResult
 from service.settings import Settings
 
@@ -49,7 +56,7 @@ def build_router(settings: Settings) -> APIRouter:
         if unknown:
             raise InvalidFieldError(unknown[0].field, unknown[0].message)
         total = sweep_size(request)
-        admit_sweep(total, sweep_worst_item(request), settings)
+        admit_sweep(sweep_slice_size(request), sweep_worst_item(request), settings)
         parameters = list(request.vary)
         if request.output == "json":
             return SweepResult(total=total, parameters=parameters, results=list(sweep_results(request, options, admit)))

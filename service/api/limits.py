@@ -159,7 +159,11 @@ def admit_batch(items: list[Any], settings: Settings) -> float:
 
 
 def admit_sweep(total: int, worst_item: dict[str, Any], settings: Settings) -> None:
-    """Grid size and budget of a sweep of `total` designs, none costlier than `worst_item`."""
+    """Size and budget of a sweep (or its slice) of `total` designs, none costlier than `worst_item`."""
     if total > settings.max_sweep_designs:
-        raise UnmeetableRequestError("vary", f"the grid holds {total} designs; at most {settings.max_sweep_designs}")
+        raise UnmeetableRequestError(
+            "vary",
+            f"the sweep asks for {total} designs; at most {settings.max_sweep_designs} "
+            "(give offset and limit to slice it)",
+        )
     admit_budget(total * design_seconds(worst_item), settings, "vary")

@@ -135,10 +135,17 @@ def sweep_worst_item(request: SweepRequest) -> dict[str, Any]:
     return item
 
 
+def sweep_slice_size(request: SweepRequest) -> int:
+    """How many grid points the request's slice (offset, limit) holds."""
+    remaining = max(sweep_size(request) - request.offset, 0)
+    return remaining if request.limit is None else min(request.limit, remaining)
+
+
 def sweep_results(request: SweepRequest, options: DesignOptions, admit: Admission) -> Iterator[ItemResult]:
-    """Every design of the sweep, in order, computed a chunk at a time so memory stays flat."""
-    grid = sweep_items(request)
-    offset = 0
+    """Every design of the sweep's slice, in order (indices count from the whole grid's start),
+    computed a chunk at a time so memory stays flat."""
+    offset = request.offset
+    grid = itertools.islice(sweep_items(request), offset, offset + sweep_slice_size(request))
     while chunk := list(itertools.islice(grid, CHUNK_ITEMS)):
         results = design_items([item for _, item in chunk], request.include_curves, options, admit, offset)
         for (parameters, _), result in zip(chunk, results, strict=True):

@@ -90,6 +90,10 @@ class SweepRequest(StrictModel):
         "json", description="json: one document; csv: a table; ndjson: one line per design, streamed."
     )
     include_curves: bool = False
+    offset: int = Field(
+        0, ge=0, description="Index of the first grid point to design: slices share one sweep among servers."
+    )
+    limit: int | None = Field(None, ge=1, description="Most grid points to design from `offset`; the rest by default.")
 
     @model_validator(mode="after")
     def _non_empty_lists(self) -> SweepRequest:
