@@ -2,8 +2,8 @@
 
 Each trial draws, from normal distributions with the given standard deviations: an independent
 width error per section, one etch bias common to all sections, and one permittivity and one
-substrate height for the board. The whole batch of trials is evaluated at once by the exact
-cascade (trials x frequencies x sections), and a trial passes when its worst reflection on the
+substrate height for the board. Trials are evaluated by the exact cascade in chunks
+(trials x frequencies x sections, bounded by CHUNK_ELEMENTS), and a trial passes when its worst reflection on the
 grid stays within the spec. The yield's sampling error is the binomial standard error
 sqrt(p (1 - p) / N), with a Wilson 95% interval.
 """
@@ -18,6 +18,7 @@ import numpy as np
 from service.analysis.line_cascade import LineCascade
 
 CHUNK_TRIALS = 256
+CHUNK_ELEMENTS = 2_000_000  # trials x frequencies x sections per chunk: bounds memory, not the count
 Z_95 = 1.959963984540054
 
 
@@ -88,8 +89,9 @@ def monte_carlo(
         "geometry": int(np.count_nonzero(drawn_geometry < 0.01 * line.geometry)),
     }
     worst = np.empty(trials)
-    for start in range(0, trials, CHUNK_TRIALS):
-        chunk = slice(start, min(start + CHUNK_TRIALS, trials))
+    per_chunk = max(1, min(CHUNK_TRIALS, CHUNK_ELEMENTS // (np.size(frequency_hz) * sections)))
+    for start in range(0, trials, per_chunk):
+        chunk = slice(start, min(start + per_chunk, trials))
         board = medium.perturbed(eps_r[chunk, None, None], height[chunk, None, None])
         trial_line = LineCascade(line.source_ohm, line.load, board, geometry[chunk, None, :], line.lengths_m)
         worst[chunk] = np.max(trial_line.reflection(frequency_hz), axis=-1)
