@@ -1,7 +1,15 @@
-"""Shared fixtures: an in-process client of the app and a baseline request body."""
+"""Shared fixtures: an in-process client of the app, a live server, and a baseline request body."""
 
+import contextlib
 import copy
+import os
+import socket
+import subprocess
+import sys
+import time
+from collections.abc import Iterator
 
+import httpx
 import pytest
 from fastapi.testclient import TestClient
 
@@ -25,3 +33,29 @@ def client() -> TestClient:
 @pytest.fixture
 def base_request() -> dict:
     return copy.deepcopy(BASE_REQUEST)
+
+
+@contextlib.contextmanager
+def live_server(**environment: str) -> Iterator[str]:
+    """A uvicorn server of the app on a free loopback port, with extra environment; yields its URL."""
+    with socket.socket() as probe:
+        probe.bind(("127.0.0.1", 0))
+        port = probe.getsockname()[1]
+    process = subprocess.Popen(
+        [sys.executable, "-m", "uvicorn", "service.app:app", "--host", "127.0.0.1", "--port", str(port)],
+        stdout=subprocess.DEVNULL,
+        stderr=subprocess.DEVNULL,
+        env={**os.environ, **environment},
+    )
+    url = f"http://127.0.0.1:{port}"
+    for _ in range(100):
+        try:
+            if httpx.get(url + "/v1/health", timeout=1).status_code == 200:
+                break
+        except httpx.HTTPError:
+            time.sleep(0.1)
+    try:
+        yield url
+    finally:
+        process.terminate()
+        process.wait(timeout=10)

@@ -7,14 +7,13 @@ Reference for the figures: the same requests sent as plain JSON with httpx.
 
 import importlib
 import json
-import os
-import socket
 import subprocess
 import sys
-import time
 
 import httpx
 import pytest
+
+from tests.conftest import live_server
 
 pytest.importorskip("openapi_python_client", reason="the test extra (openapi-python-client) is not installed")
 
@@ -29,25 +28,8 @@ DESIGN = {
 
 @pytest.fixture(scope="module")
 def server_url():
-    with socket.socket() as probe:
-        probe.bind(("127.0.0.1", 0))
-        port = probe.getsockname()[1]
-    process = subprocess.Popen(
-        [sys.executable, "-m", "uvicorn", "service.app:app", "--host", "127.0.0.1", "--port", str(port)],
-        stdout=subprocess.DEVNULL,
-        stderr=subprocess.DEVNULL,
-        env={**os.environ, "STEPLINE_ACCESS_LOG": "false"},
-    )
-    url = f"http://127.0.0.1:{port}"
-    for _ in range(100):
-        try:
-            if httpx.get(url + "/v1/health", timeout=1).status_code == 200:
-                break
-        except httpx.HTTPError:
-            time.sleep(0.1)
-    yield url
-    process.terminate()
-    process.wait(timeout=10)
+    with live_server(STEPLINE_ACCESS_LOG="false") as url:
+        yield url
 
 
 @pytest.fixture(scope="module")

@@ -2,13 +2,11 @@
 
 import os
 import shutil
-import socket
-import subprocess
-import sys
-import time
 
 import httpx
 import pytest
+
+from tests.conftest import live_server
 
 CHROMIUM = shutil.which("chromium") or "/usr/bin/chromium"
 if not os.path.exists(CHROMIUM):
@@ -28,24 +26,8 @@ BROWSER_ARGS = [
 
 @pytest.fixture(scope="module")
 def server_url():
-    with socket.socket() as probe:
-        probe.bind(("127.0.0.1", 0))
-        port = probe.getsockname()[1]
-    process = subprocess.Popen(
-        [sys.executable, "-m", "uvicorn", "service.app:app", "--host", "127.0.0.1", "--port", str(port)],
-        stdout=subprocess.DEVNULL,
-        stderr=subprocess.DEVNULL,
-    )
-    url = f"http://127.0.0.1:{port}"
-    for _ in range(100):
-        try:
-            if httpx.get(url + "/v1/health", timeout=1).status_code == 200:
-                break
-        except httpx.HTTPError:
-            time.sleep(0.1)
-    yield url
-    process.terminate()
-    process.wait(timeout=10)
+    with live_server() as url:
+        yield url
 
 
 @pytest.fixture(scope="module")

@@ -102,6 +102,10 @@ class LineCascade:
         gain = network.transducer_gain(abcd, self.source_ohm, load)
         return magnitude, -10.0 * np.log10(np.maximum(gain, 1e-30))
 
+    def impedances_at(self, frequency_hz: float) -> np.ndarray:
+        """Each section's characteristic impedance at one frequency."""
+        return self.medium.parameters(self.geometry, np.array([[frequency_hz]])).impedance_ohm[0]
+
     def eps_eff_at(self, frequency_hz: float) -> np.ndarray:
         """Each section's effective permittivity at one frequency."""
         return self.medium.parameters(self.geometry, np.array([[frequency_hz]])).eps_eff[0]

@@ -2,35 +2,31 @@
 
 from __future__ import annotations
 
-from collections.abc import Callable
 from typing import Any
 
 from service.constants import EXACT, SMALL_REFLECTION
 from service.errors import UnmeetableRequestError
+from service.pipeline.items import ITEM_ADAPTER, design_item
 from service.pipeline.options import DesignOptions
-from service.pipeline.stepped_flow import binomial, chebyshev, quarter_wave
-from service.pipeline.taper_flow import tapered
 from service.pipeline.target import target_for
 from service.schemas.comparison import Candidate, CompareRequest, Comparison, Excluded
 from service.schemas.results import TransformerDesign
-from service.schemas.tapers import TaperRequest
-from service.schemas.transformers import MatchRequest, QuarterWaveRequest, TransformerRequest
+from service.schemas.transformers import MatchRequest
 
 THEORY_NAMES = (SMALL_REFLECTION, EXACT)
 TAPER_PROFILES = ("klopfenstein", "exponential", "triangular")
-
-Run = tuple[str, str, str | None, Callable[[], TransformerDesign]]
 
 
 def compare(request: CompareRequest, options: DesignOptions | None = None) -> Comparison:
     """Design with each method, then rank: meets the spec, shortest total length, lowest reflection."""
     designs: list[TransformerDesign] = []
     excluded: list[Excluded] = []
-    for method, theory, profile, run in _runs(request, options):
+    for raw in compare_items(request):
         try:
-            designs.append(run())
+            designs.append(design_item(ITEM_ADAPTER.validate_python(raw), options))
         except UnmeetableRequestError as exc:
-            excluded.append(Excluded(method=method, theory=theory, profile=profile, reason=exc.message))
+            theory, profile = raw.get("theory", SMALL_REFLECTION), raw.get("profile")
+            excluded.append(Excluded(method=raw["method"], theory=theory, profile=profile, reason=exc.message))
     designs.sort(key=lambda d: (not d.verified.meets_spec, d.total_length_m, d.verified.max_reflection))
     candidates = [
         Candidate(
@@ -59,32 +55,13 @@ def stepped_variants(request: MatchRequest) -> list[tuple[str, str]]:
 
 
 def compare_items(request: CompareRequest) -> list[dict[str, Any]]:
-    """Each design the comparison makes, as a request item (for its compute estimate)."""
-    common = request.model_dump(exclude={"include_tapers", "taper_segments"})
+    """Each design the comparison makes, as a request item naming its method: what is designed,
+    and what the compute estimate prices."""
+    common = request.model_dump(exclude_unset=True, exclude={"sections", "include_tapers", "taper_segments"})
     items = [common | {"method": "quarter-wave", "sections": 1}] if request.sections in (None, 1) else []
-    items += [common | {"method": method, "theory": theory} for method, theory in stepped_variants(request)]
+    stepped = common if request.sections is None else common | {"sections": request.sections}
+    items += [stepped | {"method": method, "theory": theory} for method, theory in stepped_variants(request)]
     if request.include_tapers:
-        taper = common | {"method": "taper", "segments": request.taper_segments, "sections": None}
+        taper = common | {"method": "taper", "segments": request.taper_segments}
         items += [taper | {"profile": profile} for profile in TAPER_PROFILES]
     return items
-
-
-def _runs(request: CompareRequest, options: DesignOptions | None) -> list[Run]:
-    """The designs that apply to this request, each as a deferred call."""
-    common: dict[str, Any] = request.model_dump(
-        exclude_unset=True, exclude={"sections", "include_tapers", "taper_segments"}
-    )
-    runs: list[Run] = []
-    if request.sections in (None, 1):
-        runs.append(
-            ("quarter-wave", SMALL_REFLECTION, None, lambda: quarter_wave(QuarterWaveRequest(**common), options))
-        )
-    functions = {"binomial": binomial, "chebyshev": chebyshev}
-    for method, theory in stepped_variants(request):
-        stepped = TransformerRequest(**common, sections=request.sections, theory=theory)
-        runs.append((method, theory, None, lambda f=functions[method], r=stepped: f(r, options)))
-    if request.include_tapers:
-        for profile in TAPER_PROFILES:
-            taper = TaperRequest(**common, profile=profile, segments=request.taper_segments)
-            runs.append(("taper", SMALL_REFLECTION, profile, lambda r=taper: tapered(r, options)))
-    return runs

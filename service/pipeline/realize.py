@@ -35,14 +35,27 @@ def realize(
     electrical length right at its frequency, with the medium's effective permittivity there.
     """
     medium = medium_model(request)
-    try:
-        geometry = medium.geometry_for(impedances_ohm, request.band.center_hz)
-    except RealizationError as exc:
-        raise UnmeetableRequestError("medium", str(exc)) from exc
+    geometry = geometry_for(request, impedances_ohm)
     frequencies = np.asarray(frequency_hz, dtype=float) * np.ones(np.shape(geometry))
     eps = medium.parameters(geometry, frequencies).eps_eff  # each section at its own frequency
     lengths = np.asarray(angles_rad) * SPEED_OF_LIGHT_M_PER_S / (2.0 * np.pi * frequencies * np.sqrt(eps))
     return LineCascade(request.source_ohm, load, medium, geometry, lengths)
+
+
+def geometry_for(request: MatchRequest, impedances_ohm: np.ndarray) -> np.ndarray:
+    """Each impedance's geometry in the request's medium at the band centre; a 422 on `medium`
+    where the medium cannot realize one."""
+    try:
+        return medium_model(request).geometry_for(np.asarray(impedances_ohm, dtype=float), request.band.center_hz)
+    except RealizationError as exc:
+        raise UnmeetableRequestError("medium", str(exc)) from exc
+
+
+def centre_eps_eff(request: MatchRequest, impedances_ohm: np.ndarray) -> np.ndarray:
+    """Each impedance's effective permittivity in the request's medium at the band centre."""
+    geometry = geometry_for(request, impedances_ohm)
+    centre = np.full((1, geometry.size), request.band.center_hz)
+    return medium_model(request).parameters(geometry, centre).eps_eff[0]
 
 
 def quarter_wave_m(line: LineCascade, frequency_hz: float) -> float:

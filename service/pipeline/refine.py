@@ -60,6 +60,11 @@ class _Problem:
         lengths[:, 0, self.free] = x[:, count : 2 * count] * self.quarter_wave_m
         return self.line.with_sections(geometry, lengths)
 
+    def line_of(self, x: np.ndarray) -> LineCascade:
+        """The single line of one point x."""
+        stacked = self.lines(x[None, :])
+        return self.line.with_sections(stacked.geometry[0, 0], stacked.lengths_m[0, 0])
+
     def squared(self, x: np.ndarray) -> np.ndarray:
         """|Gamma|^2 on the grid for each row of x."""
         return self.lines(x).reflection(self.grid) ** 2
@@ -142,7 +147,6 @@ def refine_minimax(
         finished, used = problem.solve(x, bounds, MAX_ITERATIONS, deadline)
         candidates.append(finished)
         iterations += used
-    refined = [problem.lines(x[None, :]) for x in candidates]
-    refined = [line.with_sections(r.geometry[0, 0], r.lengths_m[0, 0]) for r in refined]
+    refined = [problem.line_of(x) for x in candidates]
     scores = [worst_reflection(r, start_hz, stop_hz)[0] for r in refined]
     return Refinement(line, refined[int(np.argmin(scores))], iterations)

@@ -37,25 +37,20 @@ class RefinedCheck:
     notes: tuple[str, ...]
 
 
-def centre_impedances(line: LineCascade, center_hz: float) -> np.ndarray:
-    """Each section's characteristic impedance at the band centre."""
-    return line.medium.parameters(line.geometry, np.array([[center_hz]])).impedance_ohm[0]
-
-
 def limit_refusal(request: SynthesisRequest, target: Target, line: LineCascade) -> UnmeetableRequestError | None:
     """The 422 for a design that leaves a limit the request set, unless it asks for refinement."""
-    if request.outside_limits == "refine" or (request.min_impedance_ohm is None and request.max_impedance_ohm is None):
+    if request.outside_limits == "refine" or not request.limits_given:
         return None  # only limits the request sets are hard
-    return refusal(section_limits(request, target), centre_impedances(line, request.band.center_hz))
+    return refusal(section_limits(request, target), line.impedances_at(request.band.center_hz))
 
 
 def needs_refinement(request: SynthesisRequest, target: Target, line: LineCascade) -> bool:
     """True for loads that are not a plain resistance, and for designs outside the limits."""
     if not target.resistive:
         return True
-    if request.min_impedance_ohm is None and request.max_impedance_ohm is None:
+    if not request.limits_given:
         return False  # the default limits take in the source and the load, between which a resistive design lies
-    return section_limits(request, target).outside(centre_impedances(line, request.band.center_hz)) is not None
+    return section_limits(request, target).outside(line.impedances_at(request.band.center_hz)) is not None
 
 
 def refined_check(
@@ -76,7 +71,7 @@ def refined_check(
     after, curve = check(refined.after, band.start_hz, band.stop_hz, request.spec_reflection, request.points)
     figures = RefinementFigures(before=before, after=after, iterations=refined.iterations)
     notes = [_refinement_note(request, target, theory, taper, figures)]
-    notes += _limit_notes(centre_impedances(refined.after, band.center_hz), limits.low_ohm, limits.high_ohm)
+    notes += _limit_notes(refined.after.impedances_at(band.center_hz), limits.low_ohm, limits.high_ohm)
     return RefinedCheck(refined.after, figures, curve, tuple(notes))
 
 

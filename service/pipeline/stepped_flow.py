@@ -9,6 +9,7 @@ from service import synthesis
 from service.constants import MAX_SECTIONS
 from service.errors import UnmeetableRequestError
 from service.pipeline.options import DesignOptions
+from service.pipeline.search_rule import MIN_GAIN, gains_enough, with_note
 from service.pipeline.target import Target, target_for
 from service.pipeline.verify import PendingCheck, verify_one
 from service.pipeline.wording import count_text
@@ -17,7 +18,6 @@ from service.schemas.results import TransformerDesign
 from service.schemas.transformers import MatchRequest, QuarterWaveRequest, TransformerRequest
 from service.synthesis.multisection import InfeasibleDesignError
 
-MIN_GAIN_PER_SECTION = 0.02  # an added section must lower the worst reflection by this fraction
 MAX_REFINED_SECTIONS = 8  # refined designs: each count costs a refinement of up to two seconds
 
 Synthesized = synthesis.SteppedDesign | synthesis.WeightedDesign
@@ -140,7 +140,7 @@ def design_to_spec(
 
     The theory's N is tried first (or `first`, its already-checked design or summary). Where the
     exact cascade misses the spec, N grows while each added section lowers the verified worst
-    reflection by at least MIN_GAIN_PER_SECTION; the search ends at the first design that meets
+    reflection by at least MIN_GAIN; the search ends at the first design that meets
     the spec, or returns the shortest design that reached the best value found, and says so.
     """
     theory_sections = recipe.theory_sections()
@@ -160,11 +160,11 @@ def design_to_spec(
                 f"The {recipe.theory} theory asks for {asked}; the exact cascade needed "
                 f"{len(candidate.sections)} to meet the spec."
             )
-            return _with_note(candidate, note)
-        if candidate.verified.max_reflection > best.verified.max_reflection * (1.0 - MIN_GAIN_PER_SECTION):
+            return with_note(candidate, note)
+        if not gains_enough(candidate.verified.max_reflection, best.verified.max_reflection):
             break
         best = candidate
-    return _with_note(best, _best_found_note(recipe, best, sections >= ceiling))
+    return with_note(best, _best_found_note(recipe, best, sections >= ceiling))
 
 
 def _best_found_note(recipe: SteppedRecipe, best: TransformerDesign | DesignSummary, at_ceiling: bool) -> str:
@@ -172,7 +172,7 @@ def _best_found_note(recipe: SteppedRecipe, best: TransformerDesign | DesignSumm
     why = (
         f"the search stops at {count_text(count, 'section')}"
         if at_ceiling
-        else f"one more section lowered it by less than {MIN_GAIN_PER_SECTION:.0%}"
+        else f"one more section lowered it by less than {MIN_GAIN:.0%}"
     )
     bound = (
         f" The Bode-Fano bound for this load and band is {best.bode_fano.min_reflection:.4g}."
@@ -184,10 +184,6 @@ def _best_found_note(recipe: SteppedRecipe, best: TransformerDesign | DesignSumm
         f"{count_text(count, 'section')} ({why}); the spec {best.verified.spec_max_reflection:.4g} "
         f"is not met.{bound}"
     )
-
-
-def _with_note(result: TransformerDesign | DesignSummary, note: str) -> TransformerDesign | DesignSummary:
-    return result.model_copy(update={"warnings": [note, *result.warnings]})
 
 
 def _verified_at(

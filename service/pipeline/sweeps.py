@@ -9,19 +9,18 @@ from collections.abc import Callable, Iterator
 from typing import Any
 
 import numpy as np
-from pydantic import TypeAdapter, ValidationError
+from pydantic import ValidationError
 
 from service.constants import MAX_POINTS, MAX_SECTIONS, MAX_SEGMENTS
 from service.errors import UnmeetableRequestError, validation_problems
 from service.pipeline.batch import design_batch
+from service.pipeline.items import ITEM_ADAPTER
 from service.pipeline.options import DesignOptions
 from service.schemas.bulk import BatchResult, DesignSummary, ItemResult, SweepRequest, ValueRange
 from service.schemas.errors import ErrorBody, Problem
-from service.schemas.items import DesignItem
 from service.schemas.results import TransformerDesign
 
 Admission = Callable[[dict[str, Any]], None]  # refuses a raw item beyond the operator's limits (UnmeetableRequestError)
-ITEM_ADAPTER: TypeAdapter = TypeAdapter(DesignItem)
 CHUNK_ITEMS = 256
 
 

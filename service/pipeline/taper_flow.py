@@ -10,9 +10,9 @@ import numpy as np
 from service.constants import SMALL_REFLECTION, SPEED_OF_LIGHT_M_PER_S
 from service.errors import UnmeetableRequestError
 from service.physics.loads import impedance_at
-from service.physics.media import RealizationError
 from service.pipeline.options import DesignOptions
-from service.pipeline.request_models import medium_model
+from service.pipeline.realize import centre_eps_eff
+from service.pipeline.search_rule import MIN_GAIN, gains_enough, with_note
 from service.pipeline.target import Target, target_for
 from service.pipeline.verify import verify_design
 from service.schemas.results import TransformerDesign
@@ -22,7 +22,6 @@ from service.synthesis.multisection import InfeasibleDesignError
 from service.synthesis.tapers import taper
 
 MAX_STRETCHES = 12  # times the spec-driven length may be corrected by the exact cascade
-MIN_GAIN_PER_STRETCH = 0.02  # a longer taper must lower the worst reflection by this fraction
 MIN_DESIGN_FRACTION = 1e-3  # the theoretical reflection a taper is designed for never goes below this x spec
 
 
@@ -33,7 +32,7 @@ def tapered(request: TaperRequest, options: DesignOptions | None = None) -> Tran
     the spec (small-reflection theory is optimistic for large ratios; a reactive load's match
     is narrow) the taper is redesigned for a proportionally tighter theoretical reflection. It
     is lengthened only while each step lowers the verified worst reflection by at least
-    MIN_GAIN_PER_STRETCH; otherwise the shortest taper that reached the best value is returned.
+    MIN_GAIN; otherwise the shortest taper that reached the best value is returned.
     For a reactive load the taper into the rotated load is tried beside tapers straight into the
     load's centre resistance and magnitude; the shortest that meets the spec, or else the best, wins.
     """
@@ -72,15 +71,15 @@ def _for_target(request: TaperRequest, target: Target, options: DesignOptions | 
         candidate = _taper(request, target, None, design_reflection, [note], options)
         if candidate.verified.meets_spec:
             return candidate
-        if candidate.verified.max_reflection > best.verified.max_reflection * (1.0 - MIN_GAIN_PER_STRETCH):
+        if not gains_enough(candidate.verified.max_reflection, best.verified.max_reflection):
             break
         best = candidate
     note = (
         f"The best this {request.profile} taper reaches is {best.verified.max_reflection:.4g} at "
-        f"{best.total_length_m:.4g} m; a longer taper lowered it by less than {MIN_GAIN_PER_STRETCH:.0%}, "
+        f"{best.total_length_m:.4g} m; a longer taper lowered it by less than {MIN_GAIN:.0%}, "
         f"so the spec {spec:.4g} is not met."
     )
-    return best.model_copy(update={"warnings": [note, *best.warnings]})
+    return with_note(best, note)
 
 
 def _taper(
@@ -111,27 +110,17 @@ def _taper(
     return result.model_copy(update={"profile": request.profile})
 
 
-def _centre_eps_eff(request: TaperRequest, impedances_ohm: np.ndarray) -> np.ndarray:
-    """Each impedance's effective permittivity in the request's medium at the band centre."""
-    medium, centre = medium_model(request), request.band.center_hz
-    try:
-        geometry = medium.geometry_for(np.asarray(impedances_ohm, dtype=float), centre)
-    except RealizationError as exc:
-        raise UnmeetableRequestError("medium", str(exc)) from exc
-    return medium.parameters(geometry, np.full((1, geometry.size), centre)).eps_eff[0]
-
-
 def _edge_length_rad(request: TaperRequest, target: Target) -> float:
     """beta L at the lower band edge of a taper of the requested length, with the eps_eff of the
     medium at the band centre for the taper's middle impedance sqrt(Z0 RL)."""
-    eps = float(_centre_eps_eff(request, np.array([math.sqrt(request.source_ohm * target.resistance_ohm)]))[0])
+    eps = float(centre_eps_eff(request, np.array([math.sqrt(request.source_ohm * target.resistance_ohm)]))[0])
     return 2.0 * math.pi * request.band.start_hz * math.sqrt(eps) * request.length_m / SPEED_OF_LIGHT_M_PER_S
 
 
 def _equal_physical_steps(request: TaperRequest, synthesized: SteppedDesign, length_m: float) -> SteppedDesign:
     """The steps cut to equal physical lengths adding up to length_m: each step's electrical length
     from its own eps_eff at the band centre (in microstrip the permittivity changes along a taper)."""
-    eps = _centre_eps_eff(request, synthesized.impedances_ohm)
+    eps = centre_eps_eff(request, synthesized.impedances_ohm)
     step_m = length_m / synthesized.impedances_ohm.size
     angles = 2.0 * math.pi * request.band.center_hz * np.sqrt(eps) * step_m / SPEED_OF_LIGHT_M_PER_S
     return replace(synthesized, electrical_length_rad=angles)

@@ -93,6 +93,11 @@ class SynthesisRequest(MatchRequest):
         ),
     )
 
+    @property
+    def limits_given(self) -> bool:
+        """Whether the request sets either impedance limit (only limits it sets are hard)."""
+        return self.min_impedance_ohm is not None or self.max_impedance_ohm is not None
+
     @model_validator(mode="after")
     def _ordered_limits(self) -> SynthesisRequest:
         low, high = self.min_impedance_ohm, self.max_impedance_ohm
