@@ -66,7 +66,7 @@ def test_taper_segment_and_trial_limits():
 
 def test_only_refined_loads_are_charged_the_refinement_time():
     # A validated request lists every load field, unset ones as None; only a set one may count.
-    budget = {"compute_budget_s": 1.0}
+    budget = {"compute_budget_s": 0.05}
     plain = client_with(**budget).post(DESIGN, json=BASE_REQUEST | {"sections": 3})
     assert plain.status_code == 200
     circuit = {"circuit": {"kind": "series-rl", "resistance_ohm": 20, "inductance_h": 1e-9}}
@@ -75,7 +75,7 @@ def test_only_refined_loads_are_charged_the_refinement_time():
 
 
 def test_sweep_and_batch_budgets():
-    client = client_with(compute_budget_s=0.05)
+    client = client_with(compute_budget_s=0.01)
     sweep = {
         "base": BASE_REQUEST | {"method": "binomial", "sections": 4},
         "vary": {"load.resistance_ohm": {"start": 10, "stop": 90, "count": 200}},

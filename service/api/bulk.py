@@ -19,8 +19,6 @@ from service.pipeline.sweeps import (
     batch_result,
     sweep_results,
     sweep_size,
-    sweep_slice_size,
-    sweep_worst_item,
     unknown_axes,
 )
 from service.schemas.bulk import BatchRequest, BatchResult, SweepRequest, SweepResult
@@ -56,7 +54,7 @@ def build_router(settings: Settings) -> APIRouter:
         if unknown:
             raise InvalidFieldError(unknown[0].field, unknown[0].message)
         total = sweep_size(request)
-        admit_sweep(sweep_slice_size(request), sweep_worst_item(request), settings)
+        admit_sweep(request, settings)
         parameters = list(request.vary)
         if request.output == "json":
             return SweepResult(total=total, parameters=parameters, results=list(sweep_results(request, options, admit)))

@@ -6,10 +6,11 @@ from fastapi import APIRouter, Body, Request
 from fastapi.responses import Response
 
 from service import pipeline
+from service.api import pricing
 from service.api.delivery import FormatQuery, deliver, export_responses, output_format
 from service.api.documented import error_responses
 from service.api.examples import request_examples
-from service.api.limits import admit_design, design_options
+from service.api.limits import admit_priced, design_options
 from service.api.scheduling import run_sized
 from service.schemas.networks import AnalyzeRequest
 from service.schemas.results import AnalysisResult
@@ -31,7 +32,7 @@ def build_router(settings: Settings) -> APIRouter:
         format: FormatQuery = None,
     ) -> Response:
         """Verify a list of sections (e.g. a design rounded to buildable impedances) by the exact cascade."""
-        seconds = admit_design(request.model_dump() | {"sections": len(request.sections)}, settings)
+        seconds = admit_priced(request.model_dump(), pricing.analyze_seconds(request), settings)
         result = await run_sized(pipeline.analyze, (request, options), seconds, settings.deadline_s)
         return deliver(request, result, output_format(format, http), "analysis")
 

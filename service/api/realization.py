@@ -44,7 +44,7 @@ def build_router(settings: Settings) -> APIRouter:
     @router.post("/yield", response_model=YieldResult, summary="Monte Carlo yield under tolerances")
     async def tolerance_yield(request: Annotated[YieldRequest, Body(openapi_examples=yield_examples)]) -> Response:
         """Design, then perturb widths, etch, permittivity and height over seeded trials."""
-        seconds = admit_yield(request.design.model_dump(), request.trials, settings)
+        seconds = admit_yield(request, settings)
         analysis = await run_sized(pipeline.yield_analysis, (request, options), seconds, settings.deadline_s)
         return json_response(analysis)
 

@@ -7,10 +7,11 @@ from fastapi import APIRouter, Body, Request
 from fastapi.responses import Response
 
 from service import pipeline
+from service.api import pricing
 from service.api.delivery import FormatQuery, deliver, export_responses, json_response, output_format
 from service.api.documented import error_responses
 from service.api.examples import request_examples
-from service.api.limits import admit_design, admit_designs, design_options
+from service.api.limits import admit_design, admit_priced, design_options
 from service.api.scheduling import run_sized
 from service.schemas.comparison import CompareRequest, Comparison
 from service.schemas.results import TransformerDesign
@@ -64,7 +65,7 @@ def build_router(settings: Settings) -> APIRouter:
         async def endpoint(
             request: Annotated[model, Body(openapi_examples=examples)], http: Request, format: FormatQuery = None
         ) -> Response:
-            seconds = admit_design(request.model_dump(), settings)
+            seconds = admit_design(request.model_dump() | {"method": path}, settings)
             name = f"{request.profile}-taper" if path == "taper" else path
             result = await run_sized(design, (request, options), seconds, settings.deadline_s)
             return deliver(request, result, output_format(format, http), name)
@@ -88,7 +89,8 @@ def build_router(settings: Settings) -> APIRouter:
     @router.post("/compare", response_model=Comparison, summary="Every method side by side")
     async def compare(request: Annotated[CompareRequest, Body(openapi_examples=compare_examples)]) -> Response:
         """All applicable methods and theories for one request, ranked for meeting the spec shortest."""
-        seconds = admit_designs(pipeline.compare_items(request), settings)
+        sizes = request.model_dump() | {"segments": request.taper_segments}
+        seconds = admit_priced(sizes, pricing.compare_seconds(request), settings)
         return json_response(await run_sized(pipeline.compare, (request, options), seconds, settings.deadline_s))
 
     return router

@@ -11,7 +11,6 @@ from typing import Any
 import numpy as np
 from pydantic import ValidationError
 
-from service.constants import MAX_POINTS, MAX_SECTIONS, MAX_SEGMENTS
 from service.errors import UnmeetableRequestError, validation_problems
 from service.pipeline.batch import design_batch
 from service.pipeline.items import ITEM_ADAPTER
@@ -93,15 +92,31 @@ def _with_value(base: dict[str, Any], path: str, value: Any) -> dict[str, Any]:
     return base
 
 
+def _grid_item(request: SweepRequest, keys: list[str], combination: tuple[Any, ...]) -> tuple[dict, dict]:
+    """(parameters, raw item) of one grid point: the base with each swept value put in place."""
+    item = copy.deepcopy(request.base)
+    parameters = dict(zip(keys, combination, strict=True))
+    for key, value in parameters.items():
+        item = _with_value(item, key, value)
+    return parameters, item
+
+
 def sweep_items(request: SweepRequest) -> Iterator[tuple[dict[str, Any], dict[str, Any]]]:
     """(parameters, raw item) for every grid point, lazily, in order."""
     keys = list(request.vary)
     for combination in itertools.product(*(sweep_values(request.vary[key]) for key in keys)):
-        item = copy.deepcopy(request.base)
-        parameters = dict(zip(keys, combination, strict=True))
-        for key, value in parameters.items():
-            item = _with_value(item, key, value)
-        yield parameters, item
+        yield _grid_item(request, keys, combination)
+
+
+def grid_point(request: SweepRequest, index: int) -> dict[str, Any]:
+    """The raw item at one index of the whole grid (the order of sweep_items: the last axis fastest)."""
+    keys = list(request.vary)
+    axes = [sweep_values(request.vary[key]) for key in keys]
+    combination = []
+    for values in reversed(axes):
+        index, position = divmod(index, len(values))
+        combination.append(values[position])
+    return _grid_item(request, keys, tuple(reversed(combination)))[1]
 
 
 def unknown_axes(request: SweepRequest) -> list[Problem]:
@@ -119,19 +134,6 @@ def unknown_axes(request: SweepRequest) -> list[Problem]:
             if path in fields
         ]
     return []
-
-
-def sweep_worst_item(request: SweepRequest) -> dict[str, Any]:
-    """The base item with the largest valid swept section count, points and segments: the costliest
-    design (values validation refuses cost nothing; their items get their own 422)."""
-    item = copy.deepcopy(request.base)
-    for key, limit in (("sections", MAX_SECTIONS), ("points", MAX_POINTS), ("segments", MAX_SEGMENTS)):
-        values = request.vary.get(key)
-        swept = sweep_values(values) if values is not None else []
-        numbers = [v for v in swept if isinstance(v, int | float) and not isinstance(v, bool) and 0 < v <= limit]
-        if numbers:
-            item[key] = max(numbers)
-    return item
 
 
 def sweep_slice_size(request: SweepRequest) -> int:
