@@ -13,7 +13,7 @@ from fastapi.staticfiles import StaticFiles
 from service import __version__
 from service.api import bulk, health, networks, realization, transformers, web
 from service.api.documented import add_key_scheme
-from service.api.middleware import AccessLog, ApiKey, BodyLimit, configure_access_log
+from service.api.middleware import AccessLog, ApiKey, BodyLimit, ShutdownAnswer, configure_access_log
 from service.api.negotiation import FormatNegotiation
 from service.api.security import SecurityHeaders
 from service.errors import install_error_handlers
@@ -63,7 +63,7 @@ def create_app(settings: Settings | None = None) -> FastAPI:
     # browser's CORS preflight (which never carries the key) is answered before the key check.
     app.add_middleware(FormatNegotiation)
     app.add_middleware(ApiKey, key=settings.api_key)
-    app.add_middleware(BodyLimit, max_bytes=settings.max_body_bytes)
+    app.add_middleware(BodyLimit, max_bytes=settings.max_body_bytes, read_timeout_s=settings.body_timeout_s)
     app.add_middleware(SecurityHeaders, frame_ancestors=settings.frame_ancestors)
     if settings.cors_allow_origins:
         app.add_middleware(
@@ -72,6 +72,7 @@ def create_app(settings: Settings | None = None) -> FastAPI:
             allow_methods=["GET", "POST"],
             allow_headers=["Content-Type", "Authorization"],
         )
+    app.add_middleware(ShutdownAnswer)
     app.add_middleware(AccessLog)
     if settings.api_key:
         _declare_key(app)

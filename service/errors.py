@@ -8,7 +8,12 @@ Which error becomes which answer (all in the shape of schemas/errors.py):
                                                        -> 422 "invalid request"
     ComputeTimeoutError (accepted work past the hard deadline, its worker stopped)
                                                        -> 503 "computation stopped"
-    HTTPException 400 / 404 / 405 / 413 (starlette)    -> that status (413: body over the size limit)
+    ClientGoneError (the client disconnected while its work ran; the work is stopped)
+                                                       -> 499 in the access log; nobody reads it
+    HTTPException 400 / 404 / 405 / 408 / 413 (starlette)
+                                                       -> that status (408: body not sent in time;
+                                                          413: body over the size limit)
+    cancellation at the end of a graceful shutdown     -> 503 "shutting down" (api/middleware.py)
     401 (missing or wrong API key), 406 (a format the route lacks)
                                                        -> answered by api/middleware.py and
                                                           api/negotiation.py in the same shape
@@ -32,7 +37,14 @@ from starlette.exceptions import HTTPException
 from service.schemas.errors import ErrorBody, Problem
 
 logger = logging.getLogger("stepline")
-HTTP_TITLES = {400: "unreadable body", 404: "not found", 405: "method not allowed", 413: "body too large"}
+CLIENT_GONE_STATUS = 499  # the common log convention for a request its client closed; never on the wire
+HTTP_TITLES = {
+    400: "unreadable body",
+    404: "not found",
+    405: "method not allowed",
+    408: "body too slow",
+    413: "body too large",
+}
 
 
 class UnmeetableRequestError(Exception):
@@ -56,6 +68,10 @@ class ComputeTimeoutError(Exception):
     def __init__(self, deadline_s: float) -> None:
         super().__init__(deadline_s)
         self.deadline_s = deadline_s
+
+
+class ClientGoneError(Exception):
+    """The client disconnected before its answer was ready; its work was stopped."""
 
 
 class InvalidFieldError(UnmeetableRequestError):
@@ -144,9 +160,14 @@ def install_error_handlers(app: FastAPI) -> None:
         )
         return error_response(503, "computation stopped", [Problem(field="request", message=message)])
 
+    @app.exception_handler(ClientGoneError)
+    async def _gone(_: Request, __: ClientGoneError) -> JSONResponse:
+        problem = Problem(field="request", message="the client disconnected; the work was stopped")
+        return error_response(CLIENT_GONE_STATUS, "client gone", [problem])
+
     @app.exception_handler(HTTPException)
     async def _http(_: Request, exc: HTTPException) -> JSONResponse:
-        field = "body" if exc.status_code in (400, 413) else "request"
+        field = "body" if exc.status_code in (400, 408, 413) else "request"
         problem = Problem(field=field, message=str(exc.detail))
         return error_response(exc.status_code, HTTP_TITLES.get(exc.status_code, str(exc.detail).lower()), [problem])
 

@@ -33,9 +33,12 @@ class Settings:
     max_trials: int = MAX_TRIALS
     max_batch_items: int = 10_000
     max_sweep_designs: int = DEFAULT_MAX_SWEEP_DESIGNS
+    max_answer_designs: int = 20_000  # designs in one JSON (not streamed) sweep answer, held in memory whole
+    max_answer_curve_points: int = 1_000_000  # response-curve points in one batch or JSON sweep answer
     compute_budget_s: float = 20.0  # estimated compute one request may take, in seconds
     access_log: bool = True  # one JSON line per request on standard output
     deadline_s: float = 40.0  # accepted work still running after this is stopped (503)
+    body_timeout_s: float = 10.0  # a request body not received whole by then is refused (408)
 
     @classmethod
     def from_env(cls, environ: dict[str, str] | None = None) -> Settings:

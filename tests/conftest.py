@@ -8,6 +8,7 @@ import subprocess
 import sys
 import time
 from collections.abc import Iterator
+from typing import IO
 
 import httpx
 import pytest
@@ -36,14 +37,17 @@ def base_request() -> dict:
 
 
 @contextlib.contextmanager
-def live_server(**environment: str) -> Iterator[str]:
-    """A uvicorn server of the app on a free loopback port, with extra environment; yields its URL."""
+def live_process(
+    arguments: tuple[str, ...] = (), log: IO | None = None, **environment: str
+) -> Iterator[tuple[str, subprocess.Popen]]:
+    """A uvicorn server of the app on a free loopback port, with extra command-line arguments and
+    environment, its standard output (the access log) to `log`; yields its URL and process."""
     with socket.socket() as probe:
         probe.bind(("127.0.0.1", 0))
         port = probe.getsockname()[1]
     process = subprocess.Popen(
-        [sys.executable, "-m", "uvicorn", "service.app:app", "--host", "127.0.0.1", "--port", str(port)],
-        stdout=subprocess.DEVNULL,
+        [sys.executable, "-m", "uvicorn", "service.app:app", "--host", "127.0.0.1", "--port", str(port), *arguments],
+        stdout=log or subprocess.DEVNULL,
         stderr=subprocess.DEVNULL,
         env={**os.environ, **environment},
     )
@@ -55,7 +59,14 @@ def live_server(**environment: str) -> Iterator[str]:
         except httpx.HTTPError:
             time.sleep(0.1)
     try:
-        yield url
+        yield url, process
     finally:
         process.terminate()
         process.wait(timeout=10)
+
+
+@contextlib.contextmanager
+def live_server(**environment: str) -> Iterator[str]:
+    """A uvicorn server of the app on a free loopback port, with extra environment; yields its URL."""
+    with live_process(**environment) as (url, _):
+        yield url

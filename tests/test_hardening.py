@@ -269,3 +269,16 @@ def test_a_two_port_file_as_a_load_is_named_for_what_it_is(client):
     assert response.status_code == 422
     problem = response.json()["problems"][0]
     assert problem["field"] == "load.touchstone" and "two-port" in problem["message"] and ".s1p" in problem["message"]
+
+
+def test_answers_held_in_memory_are_bounded():
+    client = client_with(max_answer_curve_points=1000, max_answer_designs=10)
+    item = BASE_REQUEST | {"method": "binomial", "sections": 2, "points": 400}
+    batch = client.post("/v1/batch", json={"requests": [item] * 3, "include_curves": True})
+    assert batch.status_code == 422 and batch.json()["problems"][0]["field"] == "include_curves"
+    assert client.post("/v1/batch", json={"requests": [item] * 3}).status_code == 200
+    sweep = {"base": item, "vary": {"load.resistance_ohm": {"start": 10, "stop": 90, "count": 11}}}
+    refused = client.post("/v1/sweeps", json=sweep)
+    assert refused.status_code == 422 and refused.json()["problems"][0]["field"] == "output"
+    streamed = client.post("/v1/sweeps", json=sweep | {"output": "ndjson"})
+    assert streamed.status_code == 200 and len(streamed.text.splitlines()) == 12

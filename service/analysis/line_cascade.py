@@ -8,7 +8,8 @@ a leading design axis, so that many designs are checked in one NumPy evaluation.
 from __future__ import annotations
 
 import functools
-from dataclasses import dataclass
+from collections.abc import Callable
+from dataclasses import astuple, dataclass
 
 import numpy as np
 
@@ -18,6 +19,7 @@ from service.physics.loads import FixedLoad, LoadModel
 from service.physics.media import Medium
 
 STACK_DESIGNS = 32  # designs per stacked cascade evaluation
+CHUNK_ELEMENTS = 1 << 18  # designs x frequencies x sections evaluated at once (bounds memory)
 
 
 @dataclass(frozen=True)
@@ -36,6 +38,9 @@ class LineCascade:
 
     def abcd(self, frequency_hz: np.ndarray) -> network.Abcd:
         """The cascade's ABCD entries at each frequency, with the medium's dispersion and losses."""
+        return network.Abcd(*self._by_frequency_chunks(frequency_hz, lambda f: astuple(self._abcd(f))))
+
+    def _abcd(self, frequency_hz: np.ndarray) -> network.Abcd:
         if not self.medium.lossy:
             return self._lossless_abcd(frequency_hz).complex()
         f = np.asarray(frequency_hz, dtype=float)[..., None]
@@ -92,10 +97,36 @@ class LineCascade:
         The insertion loss is -10 log10 of the power reaching the load over the power available
         from the source.
         """
+        if not with_losses or not self.medium.lossy:
+            return self._by_frequency_chunks(frequency_hz, lambda f: (self._response(f, False)[0],))[0], None
+        return self._by_frequency_chunks(frequency_hz, lambda f: self._response(f, True))
+
+    def _by_frequency_chunks(
+        self, frequency_hz: np.ndarray, evaluate: Callable[[np.ndarray], tuple[np.ndarray, ...]]
+    ) -> tuple[np.ndarray, ...]:
+        """evaluate() over slices of the frequency axis, joined: a dispersive or lossy line builds
+        arrays of designs x frequencies x sections, so memory is bounded by evaluating at most
+        CHUNK_ELEMENTS of them at a time."""
+        f = np.asarray(frequency_hz, dtype=float)
+        if f.ndim == 0 or not self._arrays_per_section:
+            return evaluate(f)
+        step = max(CHUNK_ELEMENTS // (self.geometry.size * max(f.size // f.shape[-1], 1)), 1)
+        if f.shape[-1] <= step:
+            return evaluate(f)
+        parts = [evaluate(f[..., start : start + step]) for start in range(0, f.shape[-1], step)]
+        return tuple(np.concatenate(values, axis=-1) for values in zip(*parts, strict=True))
+
+    @functools.cached_property
+    def _arrays_per_section(self) -> bool:
+        """Whether an evaluation builds frequency x section arrays: in a dispersive or lossy medium,
+        or where the sections differ in electrical length (otherwise one row per section at a time)."""
+        return self.medium.dispersive or self.medium.lossy or self._common_phase.shape[-1] > 1
+
+    def _response(self, frequency_hz: np.ndarray, with_losses: bool) -> tuple[np.ndarray, np.ndarray | None]:
         load = self.load.complex_ohm if isinstance(self.load, FixedLoad) else self.load.impedance_ohm(frequency_hz)
         if not self.medium.lossy:
             return network.lossless_reflection(self._lossless_abcd(frequency_hz), load, self.source_ohm), None
-        abcd = self.abcd(frequency_hz)
+        abcd = self._abcd(frequency_hz)
         magnitude = np.abs(network.reflection(network.input_impedance(abcd, load), self.source_ohm))
         if not with_losses:
             return magnitude, None

@@ -5,7 +5,7 @@ import json
 from collections.abc import Iterator
 from typing import Annotated
 
-from fastapi import APIRouter, Body
+from fastapi import APIRouter, Body, Request
 from fastapi.responses import Response, StreamingResponse
 
 from service.api.delivery import NDJSON_TYPE, json_response
@@ -17,6 +17,7 @@ from service.errors import InvalidFieldError
 from service.formats.csv_table import sweep_csv_lines
 from service.pipeline.sweeps import (
     batch_result,
+    sweep_result,
     sweep_results,
     sweep_size,
     unknown_axes,
@@ -36,11 +37,11 @@ def build_router(settings: Settings) -> APIRouter:
     sweep_examples = request_examples(settings.examples_dir, "sweeps")
 
     @router.post("/batch", response_model=BatchResult, summary="Many designs in one request")
-    async def batch(request: Annotated[BatchRequest, Body(openapi_examples=batch_examples)]) -> Response:
+    async def batch(request: Annotated[BatchRequest, Body(openapi_examples=batch_examples)], http: Request) -> Response:
         """Each item is validated and designed on its own; results come back in order, errors at their index."""
-        seconds = admit_batch(request.requests, settings)
+        seconds = admit_batch(request.requests, request.include_curves, settings)
         arguments = (request.requests, request.include_curves, options, admit)
-        return json_response(await run_sized(batch_result, arguments, seconds, settings.deadline_s))
+        return json_response(await run_sized(batch_result, arguments, seconds, settings.deadline_s, http))
 
     @router.post(
         "/sweeps",
@@ -48,16 +49,19 @@ def build_router(settings: Settings) -> APIRouter:
         summary="A grid of designs",
         responses={200: {"content": {"text/csv": {}, NDJSON_TYPE: {}}, "description": "The sweep's designs."}},
     )
-    def sweep(request: Annotated[SweepRequest, Body(openapi_examples=sweep_examples)]) -> SweepResult | Response:
-        """Expand the grid on the server and design every point, as JSON, CSV or streamed NDJSON."""
+    async def sweep(request: Annotated[SweepRequest, Body(openapi_examples=sweep_examples)], http: Request) -> Response:
+        """Expand the grid on the server and design every point, as JSON, CSV or streamed NDJSON.
+        JSON is computed whole (in a worker process when long, stopped if the client leaves);
+        CSV and NDJSON stream a chunk at a time and stop when the client leaves."""
         unknown = unknown_axes(request)
         if unknown:
             raise InvalidFieldError(unknown[0].field, unknown[0].message)
         total = sweep_size(request)
-        admit_sweep(request, settings)
+        seconds = admit_sweep(request, settings)
         parameters = list(request.vary)
         if request.output == "json":
-            return SweepResult(total=total, parameters=parameters, results=list(sweep_results(request, options, admit)))
+            arguments = (request, options, admit)
+            return json_response(await run_sized(sweep_result, arguments, seconds, settings.deadline_s, http))
         if request.output == "csv":
             lines = sweep_csv_lines(parameters, sweep_results(request, options, admit))
             return StreamingResponse(lines, media_type="text/csv")

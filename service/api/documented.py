@@ -12,10 +12,12 @@ def error_responses() -> dict[int | str, dict[str, Any]]:
     described = {
         401: "A key is set on this server and the request lacks `Authorization: Bearer <key>`.",
         406: "The route cannot answer in the format asked for (?format= or Accept); the message names those it has.",
+        408: "The body did not arrive whole within the server's read time (STEPLINE_BODY_TIMEOUT_S).",
         413: "The body is larger than the server accepts.",
         422: "Invalid or unmeetable request; each problem names its field.",
         500: "An unexpected error (never intended; reported in the same shape).",
-        503: "Accepted work ran past the server's deadline (STEPLINE_DEADLINE_S) and was stopped.",
+        503: "Accepted work ran past the server's deadline (STEPLINE_DEADLINE_S) and was stopped, or the "
+        "server is shutting down.",
     }
     return {status: {"model": ErrorBody, "description": text} for status, text in described.items()}
 

@@ -62,12 +62,26 @@ def admit_yield(request: YieldRequest, settings: Settings) -> float:
     return seconds
 
 
-def admit_batch(items: list[Any], settings: Settings) -> float:
-    """Item count and budget of a batch; its estimated seconds (items that are not objects cost nothing)."""
+def admit_curve_points(points: float, settings: Settings, field: str) -> None:
+    """Refuse an answer holding more response-curve points than the operator allows (memory)."""
+    if points > settings.max_answer_curve_points:
+        raise UnmeetableRequestError(
+            field,
+            f"the answer would hold {points:.0f} response-curve points; at most {settings.max_answer_curve_points} "
+            "in one answer. Ask without include_curves, for fewer points, or stream a sweep (ndjson or csv).",
+        )
+
+
+def admit_batch(items: list[Any], include_curves: bool, settings: Settings) -> float:
+    """Item count, curve size and budget of a batch; its estimated seconds (items that are not objects
+    cost nothing)."""
     if len(items) > settings.max_batch_items:
         raise UnmeetableRequestError(
             "requests", f"at most {settings.max_batch_items} items per batch; this one has {len(items)}"
         )
+    if include_curves:
+        points = sum(pricing.curve_points(item) for item in items if isinstance(item, dict))
+        admit_curve_points(points, settings, "include_curves")
     seconds = pricing.batch_seconds(items)
     admit_budget(seconds, settings, "requests")
     return seconds
@@ -82,6 +96,14 @@ def admit_sweep(request: SweepRequest, settings: Settings) -> float:
             f"the sweep asks for {total} designs; at most {settings.max_sweep_designs} "
             "(give offset and limit to slice it)",
         )
+    if request.output == "json":  # held whole in memory, unlike the streamed outputs
+        if total > settings.max_answer_designs:
+            raise UnmeetableRequestError(
+                "output",
+                f"a JSON answer holds at most {settings.max_answer_designs} designs; this slice has {total}. "
+                "Stream it (output ndjson or csv) or give offset and limit.",
+            )
+        admit_curve_points(pricing.sweep_curve_points(request), settings, "include_curves")
     seconds = pricing.sweep_seconds(request)
     admit_budget(seconds, settings, "vary")
     return seconds

@@ -1,7 +1,9 @@
-"""ASGI middleware: body size limit, optional API key, structured access log with a request id."""
+"""ASGI middleware: body size and read-time limits, optional API key, structured access log with a
+request id, and an answer in the error shape for requests cut off by a shutdown."""
 
 from __future__ import annotations
 
+import asyncio
 import hmac
 import json
 import logging
@@ -29,11 +31,14 @@ async def send_error(send: Send, status: int, title: str, field: str, message: s
 
 
 class BodyLimit:
-    """Refuse bodies over the limit with 413, whether announced by Content-Length or streamed."""
+    """Refuse bodies over the limit with 413, whether announced by Content-Length or streamed, and
+    bodies that do not arrive whole within the read time with 408 (a client that declares a body
+    and never sends it must not hold the request open)."""
 
-    def __init__(self, app: ASGIApp, max_bytes: int) -> None:
+    def __init__(self, app: ASGIApp, max_bytes: int, read_timeout_s: float) -> None:
         self.app = app
         self.max_bytes = max_bytes
+        self.read_timeout_s = read_timeout_s
 
     async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
         if scope["type"] != "http":
@@ -45,14 +50,22 @@ class BodyLimit:
             return
         received = 0
         started = False
+        body_done = False
+        deadline = time.monotonic() + self.read_timeout_s
 
         async def counted() -> Message:
-            nonlocal received
-            message = await receive()
+            nonlocal received, body_done
+            if body_done:  # after the body, receive only waits for a disconnect
+                return await receive()
+            try:
+                message = await asyncio.wait_for(receive(), max(deadline - time.monotonic(), 0.0))
+            except TimeoutError:
+                raise BodyTimeoutError(self.read_timeout_s) from None
             if message["type"] == "http.request":
                 received += len(message.get("body", b""))
                 if received > self.max_bytes:
                     raise BodyTooLargeError(self.max_bytes)
+                body_done = not message.get("more_body", False)
             return message
 
         async def tracking(message: Message) -> None:
@@ -76,6 +89,40 @@ class BodyTooLargeError(HTTPException):
 
     def __init__(self, max_bytes: int) -> None:
         super().__init__(status_code=413, detail=f"the body may be at most {max_bytes} bytes")
+
+
+class BodyTimeoutError(HTTPException):
+    """Raised when a body has not arrived whole within the read time: 408."""
+
+    def __init__(self, read_timeout_s: float) -> None:
+        super().__init__(status_code=408, detail=f"the body did not arrive within {read_timeout_s:g} s")
+
+
+class ShutdownAnswer:
+    """A request still running when the server's graceful shutdown runs out is cancelled; answer it
+    with a 503 in the error shape (the server would otherwise send a plain-text 500)."""
+
+    def __init__(self, app: ASGIApp) -> None:
+        self.app = app
+
+    async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
+        if scope["type"] != "http":
+            await self.app(scope, receive, send)
+            return
+        started = False
+
+        async def tracking(message: Message) -> None:
+            nonlocal started
+            started = started or message["type"] == "http.response.start"
+            await send(message)
+
+        try:
+            await self.app(scope, receive, tracking)
+        except asyncio.CancelledError:
+            if not started:
+                message = "the server is shutting down; send the request again"
+                await send_error(send, 503, "shutting down", "request", message, [(b"connection", b"close")])
+            raise
 
 
 class ApiKey:

@@ -33,7 +33,7 @@ def build_router(settings: Settings) -> APIRouter:
     ) -> Response:
         """Verify a list of sections (e.g. a design rounded to buildable impedances) by the exact cascade."""
         seconds = admit_priced(request.model_dump(), pricing.analyze_seconds(request), settings)
-        result = await run_sized(pipeline.analyze, (request, options), seconds, settings.deadline_s)
+        result = await run_sized(pipeline.analyze, (request, options), seconds, settings.deadline_s, http)
         return deliver(request, result, output_format(format, http), "analysis")
 
     return router

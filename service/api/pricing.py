@@ -21,6 +21,7 @@ refuse price as defaults, so they never sink a request that holds them).
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 from typing import Any
 
 from service.analysis.worst_case import CHECK_POINTS_PER_LOBE, MAX_CHECK_POINTS, MIN_CHECK_POINTS, PEAKS_REFINED
@@ -248,14 +249,28 @@ def batch_seconds(items: list[Any]) -> float:
     return sum(design_seconds(item, stacked=True) for item in items if isinstance(item, dict))
 
 
-def sweep_seconds(request: SweepRequest) -> float:
-    """The sweep's slice: each point priced where there are few, else the mean of evenly spread
-    points times their count (a product grid's points spread evenly take each axis's values in
-    proportion)."""
+def curve_points(item: dict[str, Any]) -> float:
+    """Points in the item's response curve."""
+    return _number(item.get("points"), DEFAULT_POINTS, MAX_POINTS)
+
+
+def _sweep_total(request: SweepRequest, measure: Callable[[dict[str, Any]], float]) -> float:
+    """measure() summed over the sweep's slice: point by point where there are few, else the mean
+    of evenly spread points times their count (a product grid's points spread evenly take each
+    axis's values in proportion)."""
     count = sweep_slice_size(request)
     if count == 0:
         return 0.0
     samples = min(count, SWEEP_SAMPLES)
     indices = [request.offset + (k * count) // samples for k in range(samples)]
-    mean = sum(design_seconds(grid_point(request, index), stacked=True) for index in indices) / samples
-    return mean * count
+    return sum(measure(grid_point(request, index)) for index in indices) / samples * count
+
+
+def sweep_seconds(request: SweepRequest) -> float:
+    """Every design of the sweep's slice, each as a stacked item."""
+    return _sweep_total(request, lambda item: design_seconds(item, stacked=True))
+
+
+def sweep_curve_points(request: SweepRequest) -> float:
+    """Curve points in the sweep slice's answer (none without curves)."""
+    return _sweep_total(request, curve_points) if request.include_curves else 0.0

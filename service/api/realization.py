@@ -2,7 +2,7 @@
 
 from typing import Annotated
 
-from fastapi import APIRouter, Body
+from fastapi import APIRouter, Body, Request
 from fastapi.responses import Response
 
 from service import pipeline
@@ -12,12 +12,22 @@ from service.api.examples import request_examples
 from service.api.limits import admit_design, admit_yield, design_options
 from service.api.scheduling import run_sized
 from service.formats.svg import transformer_svg
+from service.pipeline.items import Item
+from service.pipeline.options import DesignOptions
 from service.pipeline.wording import count_text
 from service.schemas.items import DesignItem
 from service.schemas.tolerance import YieldRequest, YieldResult
 from service.settings import Settings
 
 SVG_TYPE = "image/svg+xml"
+
+
+def drawing_svg(item: Item, options: DesignOptions) -> str:
+    """The SVG drawing of the item's design (module level, so a worker process can run it)."""
+    design = pipeline.design_item(item, options)
+    outer = getattr(item.medium, "outer_diameter_m", None)
+    title = f"Stepline {item.method} transformer, {design.medium}, {count_text(len(design.sections), 'section')}"
+    return transformer_svg(design, title, outer)
 
 
 def build_router(settings: Settings) -> APIRouter:
@@ -33,19 +43,19 @@ def build_router(settings: Settings) -> APIRouter:
         response_class=Response,
         responses={200: {"content": {SVG_TYPE: {"schema": {"type": "string"}}}, "description": "An SVG drawing."}},
     )
-    def drawing(item: Annotated[DesignItem, Body(openapi_examples=drawing_examples)]) -> Response:
+    async def drawing(item: Annotated[DesignItem, Body(openapi_examples=drawing_examples)], http: Request) -> Response:
         """Design with the named method and draw it: strip steps from above, or the coax in cut-away."""
-        admit_design(item.model_dump(), settings)
-        design = pipeline.design_item(item, options)
-        outer = getattr(item.medium, "outer_diameter_m", None)
-        title = f"Stepline {item.method} transformer, {design.medium}, {count_text(len(design.sections), 'section')}"
-        return Response(transformer_svg(design, title, outer), media_type=SVG_TYPE)
+        seconds = admit_design(item.model_dump(), settings)
+        svg = await run_sized(drawing_svg, (item, options), seconds, settings.deadline_s, http)
+        return Response(svg, media_type=SVG_TYPE)
 
     @router.post("/yield", response_model=YieldResult, summary="Monte Carlo yield under tolerances")
-    async def tolerance_yield(request: Annotated[YieldRequest, Body(openapi_examples=yield_examples)]) -> Response:
+    async def tolerance_yield(
+        request: Annotated[YieldRequest, Body(openapi_examples=yield_examples)], http: Request
+    ) -> Response:
         """Design, then perturb widths, etch, permittivity and height over seeded trials."""
         seconds = admit_yield(request, settings)
-        analysis = await run_sized(pipeline.yield_analysis, (request, options), seconds, settings.deadline_s)
+        analysis = await run_sized(pipeline.yield_analysis, (request, options), seconds, settings.deadline_s, http)
         return json_response(analysis)
 
     return router

@@ -4,7 +4,11 @@ Handing work elsewhere costs more than a typical small design takes, so short de
 Anything estimated to take longer runs in a pool of worker processes (pebble's ProcessPool, a
 well-kept library chosen because it stops a task at its timeout and replaces the worker, which
 the standard library's pool cannot): the event loop stays free for health checks and small
-requests, and work past the hard deadline is stopped and answered with a 503.
+requests, and work past the hard deadline is stopped and answered with a 503. Work whose client
+has gone is stopped too: nobody would read its answer.
+
+The workers run at a lower scheduling priority (nice) than the server process, so on a machine
+whose cores are all busy computing, the event loop still gets a core at once for health checks.
 """
 
 from __future__ import annotations
@@ -19,10 +23,13 @@ from concurrent.futures.process import BrokenProcessPool
 from typing import Any, TypeVar
 
 from pebble import ProcessExpired, ProcessPool
+from starlette.requests import Request
 
-from service.errors import ComputeTimeoutError
+from service.errors import ClientGoneError, ComputeTimeoutError
 
 INLINE_LIMIT_S = 5e-3
+WORKER_NICENESS = 10  # added to the workers' nice value: the server's event loop comes first
+DISCONNECT_POLL_S = 0.25  # how often a waiting request checks that its client is still there
 
 Result = TypeVar("Result")
 _pool: ProcessPool | None = None
@@ -34,21 +41,50 @@ def worker_pool() -> ProcessPool:
     no lock a server thread held at the fork is ever waited on in a worker."""
     global _pool
     if _pool is None or not _pool.active:
-        _pool = ProcessPool(max_workers=os.cpu_count() or 1, context=multiprocessing.get_context("fork"))
+        _pool = ProcessPool(
+            max_workers=os.cpu_count() or 1, context=multiprocessing.get_context("fork"), initializer=_lower_priority
+        )
         atexit.register(_pool.stop)
     return _pool
 
 
+def _lower_priority() -> None:
+    """Run in each new worker: yield the CPU to the server process when both want it."""
+    os.nice(WORKER_NICENESS)
+
+
+async def _client_gone(http: Request) -> None:
+    """Return once the client of this request has disconnected."""
+    while not await http.is_disconnected():
+        await asyncio.sleep(DISCONNECT_POLL_S)
+
+
 async def run_sized(
-    function: Callable[..., Result], args: tuple[Any, ...], estimated_s: float, deadline_s: float
+    function: Callable[..., Result],
+    args: tuple[Any, ...],
+    estimated_s: float,
+    deadline_s: float,
+    http: Request | None = None,
 ) -> Result:
     """function(*args): inline if its estimated compute is under INLINE_LIMIT_S, else in a worker
-    process that is stopped (ComputeTimeoutError) once it runs past deadline_s. The function and
-    its arguments must be picklable: module-level functions, request models, settings."""
+    process that is stopped once it runs past deadline_s (ComputeTimeoutError) or once the client
+    of `http` disconnects (ClientGoneError). The function and its arguments must be picklable:
+    module-level functions, request models, settings."""
     if estimated_s <= INLINE_LIMIT_S:
         return function(*args)
     future = worker_pool().schedule(function, args=args, timeout=deadline_s)
+    work = asyncio.wrap_future(future)
+    watcher = asyncio.ensure_future(_client_gone(http) if http is not None else asyncio.Event().wait())
     try:
-        return await asyncio.wrap_future(future)
+        done, _ = await asyncio.wait({work, watcher}, return_when=asyncio.FIRST_COMPLETED)
+        if work not in done:
+            future.cancel()  # pebble stops the worker running it and starts a fresh one
+            raise ClientGoneError()
+        return work.result()
     except (FutureTimeout, ProcessExpired, BrokenProcessPool):
         raise ComputeTimeoutError(deadline_s) from None
+    except asyncio.CancelledError:  # the request itself was cancelled (a shutdown): stop its work
+        future.cancel()
+        raise
+    finally:
+        watcher.cancel()

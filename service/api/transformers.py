@@ -67,7 +67,7 @@ def build_router(settings: Settings) -> APIRouter:
         ) -> Response:
             seconds = admit_design(request.model_dump() | {"method": path}, settings)
             name = f"{request.profile}-taper" if path == "taper" else path
-            result = await run_sized(design, (request, options), seconds, settings.deadline_s)
+            result = await run_sized(design, (request, options), seconds, settings.deadline_s, http)
             return deliver(request, result, output_format(format, http), name)
 
         router.add_api_route(
@@ -87,10 +87,13 @@ def build_router(settings: Settings) -> APIRouter:
     compare_examples = request_examples(settings.examples_dir, "transformers/compare")
 
     @router.post("/compare", response_model=Comparison, summary="Every method side by side")
-    async def compare(request: Annotated[CompareRequest, Body(openapi_examples=compare_examples)]) -> Response:
+    async def compare(
+        request: Annotated[CompareRequest, Body(openapi_examples=compare_examples)], http: Request
+    ) -> Response:
         """All applicable methods and theories for one request, ranked for meeting the spec shortest."""
         sizes = request.model_dump() | {"segments": request.taper_segments}
         seconds = admit_priced(sizes, pricing.compare_seconds(request), settings)
-        return json_response(await run_sized(pipeline.compare, (request, options), seconds, settings.deadline_s))
+        comparison = await run_sized(pipeline.compare, (request, options), seconds, settings.deadline_s, http)
+        return json_response(comparison)
 
     return router

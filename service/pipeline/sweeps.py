@@ -11,16 +11,18 @@ from typing import Any
 import numpy as np
 from pydantic import ValidationError
 
+from service.constants import DEFAULT_POINTS, MAX_POINTS
 from service.errors import UnmeetableRequestError, validation_problems
 from service.pipeline.batch import design_batch
 from service.pipeline.items import ITEM_ADAPTER
 from service.pipeline.options import DesignOptions
-from service.schemas.bulk import BatchResult, DesignSummary, ItemResult, SweepRequest, ValueRange
+from service.schemas.bulk import BatchResult, DesignSummary, ItemResult, SweepRequest, SweepResult, ValueRange
 from service.schemas.errors import ErrorBody, Problem
 from service.schemas.results import TransformerDesign
 
 Admission = Callable[[dict[str, Any]], None]  # refuses a raw item beyond the operator's limits (UnmeetableRequestError)
 CHUNK_ITEMS = 256
+CHUNK_CURVE_POINTS = 250_000  # response-curve points in one chunk of a sweep with curves
 
 
 def summary(design: TransformerDesign | DesignSummary, include_curves: bool) -> DesignSummary:
@@ -142,12 +144,34 @@ def sweep_slice_size(request: SweepRequest) -> int:
     return remaining if request.limit is None else min(request.limit, remaining)
 
 
+def sweep_result(request: SweepRequest, options: DesignOptions, admit: Admission) -> SweepResult:
+    """The whole sweep's slice as one answer (a module-level function, so a worker process can run it)."""
+    results = list(sweep_results(request, options, admit))
+    return SweepResult(total=sweep_size(request), parameters=list(request.vary), results=results)
+
+
+def _chunks(grid: Iterator[tuple[dict, dict]], include_curves: bool) -> Iterator[list[tuple[dict, dict]]]:
+    """Grid points in chunks of CHUNK_ITEMS, smaller where their curves would hold more than
+    CHUNK_CURVE_POINTS points: a chunk's results are in memory together."""
+    chunk: list[tuple[dict, dict]] = []
+    points = 0
+    for point in grid:
+        chunk.append(point)
+        given = point[1].get("points")
+        points += given if isinstance(given, int) and 0 < given <= MAX_POINTS else DEFAULT_POINTS
+        if len(chunk) == CHUNK_ITEMS or (include_curves and points >= CHUNK_CURVE_POINTS):
+            yield chunk
+            chunk, points = [], 0
+    if chunk:
+        yield chunk
+
+
 def sweep_results(request: SweepRequest, options: DesignOptions, admit: Admission) -> Iterator[ItemResult]:
     """Every design of the sweep's slice, in order (indices count from the whole grid's start),
     computed a chunk at a time so memory stays flat."""
     offset = request.offset
     grid = itertools.islice(sweep_items(request), offset, offset + sweep_slice_size(request))
-    while chunk := list(itertools.islice(grid, CHUNK_ITEMS)):
+    for chunk in _chunks(grid, request.include_curves):
         results = design_items([item for _, item in chunk], request.include_curves, options, admit, offset)
         for (parameters, _), result in zip(chunk, results, strict=True):
             yield result.model_copy(update={"parameters": parameters})
