@@ -83,7 +83,7 @@ def test_new_design_bad_value_and_share_link(browser, server_url, tmp_path):
     error = page.locator('.field-error[data-for="stop"]')
     error.wait_for(state="visible")
     page.wait_for_function("document.querySelector('.field-error[data-for=\"stop\"]').textContent.length > 0")
-    assert "greater than" in error.inner_text()
+    assert "must be above the band start (3 GHz)" in error.inner_text()
     assert "invalid" in page.get_attribute("#stop", "class")
 
     restored = open_page(browser, server_url + share)
@@ -121,3 +121,96 @@ def test_page_policy_allows_no_outside_resources(server_url):
     policy = response.headers["content-security-policy"]
     assert "default-src 'self'" in policy and "frame-ancestors 'self'" in policy
     assert "http" not in response.text.split("<footer")[0].replace("http://www.w3.org", "")
+
+
+def test_results_are_marked_out_of_date_when_the_form_changes_or_a_request_fails(browser, server_url):
+    page = open_page(browser, server_url + "/")
+    assert "Meets the spec" in page.inner_text("#status")
+    page.fill("#load-r", "30")
+    assert "stale" in page.get_attribute("#results", "class")
+    assert "Out of date" in page.inner_text("#status")
+    page.click("#design")
+    page.wait_for_function("!document.getElementById('results').classList.contains('stale')")
+    page.fill("#stop", "1")
+    page.click("#design")
+    page.wait_for_function("document.getElementById('status').textContent.includes('Out of date')")
+    assert "stale" in page.get_attribute("#results", "class")
+
+
+def test_a_field_that_is_not_a_number_is_an_error_at_that_field(browser, server_url):
+    page = open_page(browser, server_url + "/")
+    verdict = page.inner_text("#verdict")
+    requests = []
+    page.on("request", lambda request: requests.append(request.url) if "/v1/transformers" in request.url else None)
+    for text in ("0.o5", "1,8"):
+        page.fill("#spec", text)
+        page.click("#design")
+        error = page.locator('.field-error[data-for="spec"]')
+        page.wait_for_function("document.querySelector('.field-error[data-for=\"spec\"]').textContent.length > 0")
+        assert f'"{text}" is not a number' in error.inner_text()
+        assert page.get_attribute("#spec", "aria-invalid") == "true"
+        assert page.get_attribute("#spec", "aria-describedby") == "spec-error"
+    assert requests == []  # nothing was sent, nothing silently rewritten
+    assert page.inner_text("#verdict") == verdict and "Out of date" in page.inner_text("#status")
+
+
+def test_two_quick_designs_show_only_the_second(browser, server_url):
+    page = open_page(browser, server_url + "/")
+
+    def delayed(route):
+        page.wait_for_timeout(1500)  # the first answer arrives after the second
+        route.continue_()
+
+    page.route("**/v1/transformers/taper", delayed)
+    page.select_option("#method", "taper")
+    page.click("#design")
+    assert page.get_attribute("body", "data-busy") == "1" and "Designing" in page.inner_text("#status")
+    page.select_option("#method", "quarter-wave")
+    page.click("#design")
+    page.wait_for_function("document.getElementById('legend').textContent.includes('quarter-wave')")
+    page.wait_for_timeout(2500)
+    assert page.locator("#sections-table tbody tr").count() == 1
+    assert "taper" not in page.inner_text("#legend")
+    assert "quarter-wave" in page.url
+
+
+def test_the_page_fits_a_phone_screen(browser, server_url, tmp_path):
+    page = browser.new_page(viewport={"width": 360, "height": 800}, bypass_csp=True)
+    page.goto(server_url + "/?medium=microstrip&sections=6&method=chebyshev")
+    page.wait_for_selector('body[data-ready="1"]', timeout=20000)
+    assert page.evaluate("document.documentElement.scrollWidth") <= 360
+    page.screenshot(path=str(tmp_path / "phone.png"), full_page=True)
+
+
+def test_long_tapers_collapse_their_table_and_say_why_the_view_is_narrow(browser, server_url):
+    page = open_page(browser, server_url + "/?method=taper&segments=512")
+    assert page.locator("#sections-table tbody tr").count() == 24
+    assert "512 sections" in page.inner_text("#table-summary")
+    assert "at most 256 sections" in page.inner_text("#plot-note")
+    page.click("#show-all")
+    assert page.locator("#sections-table tbody tr").count() == 512
+
+
+def test_a_reactive_load_marks_its_rotating_line(browser, server_url):
+    page = open_page(browser, server_url + "/?load-x=-15&sections=3&method=chebyshev")
+    assert "3 sections + rotating line" in page.inner_text("#legend")
+    assert "(rotating line)" in page.inner_text("#sections-table tbody tr:last-child")
+    page.click('input[value="return-loss"]')
+    assert "spec |reflection|" not in page.text_content("#response-plot")
+    assert "spec 26.02 dB" in page.text_content("#response-plot")  # 0.05 as return loss: -20 log10(0.05)
+
+
+def test_embed_mode_on_a_keyed_server_asks_for_the_key(browser):
+    with live_server(STEPLINE_API_KEY="bench-key") as url:
+        page = browser.new_page(bypass_csp=True)
+        page.goto(url + "/?embed=1")
+        page.wait_for_selector('body[data-ready="1"]', timeout=20000)
+        assert page.is_visible("#api-key")
+        assert "needs an API key" in page.inner_text("#status")
+        page.fill("#api-key", "wrong")
+        page.press("#api-key", "Enter")
+        page.wait_for_function("document.getElementById('status').textContent.includes('not accepted')")
+        page.fill("#api-key", "bench-key")
+        page.press("#api-key", "Enter")
+        page.wait_for_function("document.getElementById('status').textContent.includes('spec')")
+        assert page.locator("#sections-table tbody tr").count() >= 1

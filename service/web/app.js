@@ -11,74 +11,179 @@ const FIELD_INPUTS = {
   "medium.ground_spacing_m": "height", "medium.thickness_m": "thickness", "medium.outer_diameter_m": "outer",
   authorization: "api-key",
 };
-const COLORS = ["#1f6f6a", "#b8733a", "#5a4fa2", "#a8321e", "#3f7f2f", "#8a5a00"];
-const state = { current: null, pinned: [], request: null };
+// Never the spec line's red (#a8321e): a design's peaks sit on that line.
+const COLORS = ["#1f6f6a", "#b8733a", "#5a4fa2", "#2b6cb0", "#3f7f2f", "#8a5a00", "#7a3b69", "#4a5568"];
+const RETURN_LOSS_CEILING_DB = 80;
+const LONG_TABLE_ROWS = 24;
+const ANALYZE_MAX_SECTIONS = 256;
+const state = { current: null, pinned: [], request: null, active: null, sequence: 0 };
+const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+// What each number field is called on the page, what blank means (null: required) and its range.
+const NUMBER_FIELDS = {
+  source: { label: "Source impedance", unit: "ohm", check: (v) => (v > 0 ? null : "must be above 0 ohm") },
+  "load-r": { label: "Load resistance", unit: "ohm", check: (v) => (v > 0 ? null : "must be above 0 ohm (a load without resistance absorbs no power)") },
+  "load-x": { label: "Load reactance", unit: "ohm", blank: 0, check: () => null },
+  start: { label: "Band start", unit: "GHz", check: (v) => (v > 0 ? null : "must be above 0 GHz") },
+  stop: { label: "Band stop", unit: "GHz", check: (v) => (v > 0 ? null : "must be above 0 GHz") },
+  spec: { label: "Spec value", blank: null, optional: true, check: specProblem },
+  sections: { label: "Sections", optional: true, check: (v) => (Number.isInteger(v) && v >= 1 && v <= 32 ? null : "must be a whole number from 1 to 32") },
+  segments: { label: "Taper steps", blank: 64, check: (v) => (Number.isInteger(v) && v >= 2 && v <= 1024 ? null : "must be a whole number from 2 to 1024") },
+  vf: { label: "Velocity factor", blank: 1, check: (v) => (v > 0 && v <= 1 ? null : "must be above 0 and at most 1") },
+  "eps-r": { label: "Relative permittivity", check: (v) => (v >= 1 ? null : "must be at least 1") },
+  height: { label: "Substrate height / ground spacing", unit: "mm", check: (v) => (v > 0 ? null : "must be above 0 mm") },
+  thickness: { label: "Conductor thickness", unit: "um", check: (v) => (v >= 0 ? null : "cannot be negative") },
+  outer: { label: "Outer diameter", unit: "mm", check: (v) => (v > 0 ? null : "must be above 0 mm") },
+};
+// API names that can appear in the service's messages, in the page's words.
+const API_WORDS = [
+  [/\bresistance_ohm, circuit, measured or touchstone\b/g, "load resistance"], [/\bsource_ohm\b/g, "source impedance"],
+  [/\bresistance_ohm\b/g, "load resistance"], [/\breactance_ohm\b/g, "load reactance"], [/\bstart_hz\b/g, "band start"],
+  [/\bstop_hz\b/g, "band stop"], [/\bmax_reflection\b/g, "largest |reflection|"], [/\bmin_return_loss_db\b/g, "smallest return loss"],
+  [/\bmax_vswr\b/g, "largest VSWR"], [/\bvelocity_factor\b/g, "velocity factor"], [/\beps_r\b/g, "relative permittivity"],
+  [/\bheight_m\b/g, "substrate height"], [/\bground_spacing_m\b/g, "ground spacing"], [/\bthickness_m\b/g, "conductor thickness"],
+  [/\bouter_diameter_m\b/g, "outer diameter"], [/\bsegments\b/g, "taper steps"],
+];
+
+class FormProblems extends Error {
+  constructor(problems) { super("form problems"); this.problems = problems; }
+}
+
+function specProblem(v) {
+  const form = value("spec-form");
+  if (form === "max_reflection") return v > 0 && v < 1 ? null : "a |reflection| must be above 0 and below 1";
+  if (form === "min_return_loss_db") return v > 0 ? null : "a return loss must be above 0 dB";
+  return v > 1 ? null : "a VSWR must be above 1";
+}
 
 const byId = (id) => document.getElementById(id);
 const value = (id) => byId(id).value.trim();
 
-function number(id, scale = 1) {
+/** The field's number (times scale), its documented default when blank, or a problem in the form's words. */
+function number(id, scale = 1, problems = []) {
+  const field = NUMBER_FIELDS[id];
   const text = value(id);
-  if (text === "") return null;
+  if (text === "") {
+    if (field.optional) return null;
+    if (field.blank === undefined) { problems.push({ id, message: "is needed" }); return null; }
+    return field.blank * scale;
+  }
+  if (!NUMBER.test(text)) {
+    problems.push({ id, message: `"${text}" is not a number (write decimals with a point, e.g. 0.05 or 2.4)` });
+    return null;
+  }
   const parsed = Number(text);
-  return Number.isFinite(parsed) ? parsed * scale : text;
+  const problem = field.check(parsed);
+  if (problem) { problems.push({ id, message: problem }); return null; }
+  return parsed * scale;
 }
 
+/** The request the form describes, or FormProblems naming each field that cannot be read. */
 function buildRequest() {
+  const problems = [];
   const method = value("method");
   const body = {
-    source_ohm: number("source"),
-    load: { resistance_ohm: number("load-r"), reactance_ohm: number("load-x") ?? 0 },
-    band: { start_hz: number("start", 1e9), stop_hz: number("stop", 1e9) },
+    source_ohm: number("source", 1, problems),
+    load: { resistance_ohm: number("load-r", 1, problems), reactance_ohm: number("load-x", 1, problems) },
+    band: { start_hz: number("start", 1e9, problems), stop_hz: number("stop", 1e9, problems) },
     points: 201,
   };
-  const spec = number("spec");
+  const { start_hz: start, stop_hz: stop } = body.band;
+  if (start !== null && stop !== null && stop <= start) {
+    problems.push({ id: "stop", message: `must be above the band start (${value("start")} GHz)` });
+  }
+  const spec = number("spec", 1, problems);
   if (spec !== null) body[value("spec-form")] = spec;
   if (method === "binomial" || method === "chebyshev") {
     body.theory = value("theory");
-    if (number("sections") !== null) body.sections = number("sections");
+    const sections = number("sections", 1, problems);
+    if (sections !== null) body.sections = sections;
   }
   if (method === "taper") {
     body.profile = value("profile");
-    body.segments = number("segments");
+    body.segments = number("segments", 1, problems);
   }
   const medium = value("medium");
-  if (medium === "ideal") body.velocity_factor = number("vf");
-  else if (medium === "coax") body.medium = { kind: "coax", eps_r: number("eps-r"), outer_diameter_m: number("outer", 1e-3) };
+  if (medium === "ideal") body.velocity_factor = number("vf", 1, problems);
+  else if (medium === "coax") body.medium = { kind: "coax", eps_r: number("eps-r", 1, problems), outer_diameter_m: number("outer", 1e-3, problems) };
   else {
-    body.medium = { kind: medium, eps_r: number("eps-r"), thickness_m: number("thickness", 1e-6) };
-    body.medium[medium === "microstrip" ? "height_m" : "ground_spacing_m"] = number("height", 1e-3);
+    body.medium = { kind: medium, eps_r: number("eps-r", 1, problems), thickness_m: number("thickness", 1e-6, problems) };
+    body.medium[medium === "microstrip" ? "height_m" : "ground_spacing_m"] = number("height", 1e-3, problems);
   }
+  if (problems.length) throw new FormProblems(problems);
   return { method, body };
 }
 
+/** The service's message in the page's words. */
+function inPageWords(message) {
+  return API_WORDS.reduce((text, [pattern, words]) => text.replace(pattern, words), message);
+}
+
 function clearErrors() {
-  document.querySelectorAll(".field-error").forEach((e) => { e.textContent = ""; });
-  document.querySelectorAll("input.invalid, select.invalid").forEach((e) => e.classList.remove("invalid"));
+  document.querySelectorAll(".field-error").forEach((e) => { e.textContent = ""; e.removeAttribute("id"); });
+  document.querySelectorAll("[aria-invalid]").forEach((e) => {
+    e.classList.remove("invalid");
+    e.removeAttribute("aria-invalid");
+    e.removeAttribute("aria-describedby");
+  });
   byId("form-error").textContent = "";
 }
 
+/** Each problem beside its field ({id, message} from the page, {field, message} from the service). */
 function showErrors(problems) {
   const general = [];
   for (const problem of problems) {
-    const id = FIELD_INPUTS[problem.field] || FIELD_INPUTS[problem.field.split(".").slice(0, 2).join(".")];
+    const id = problem.id || FIELD_INPUTS[problem.field] || FIELD_INPUTS[problem.field.split(".").slice(0, 2).join(".")];
     const slot = id && document.querySelector(`.field-error[data-for="${id}"]`);
+    const message = problem.id ? problem.message : inPageWords(problem.message);
     if (slot) {
-      slot.textContent = problem.message;
+      slot.textContent = message;
+      slot.id = `${id}-error`;
       byId(id).classList.add("invalid");
+      byId(id).setAttribute("aria-invalid", "true");
+      byId(id).setAttribute("aria-describedby", slot.id);
     } else {
-      general.push(`${problem.field}: ${problem.message}`);
+      general.push(message);
     }
   }
   byId("form-error").textContent = general.join(" ");
+  const first = problems[0];
+  const label = first && first.id ? NUMBER_FIELDS[first.id]?.label : null;
+  return label ? `${label}: ${first.message}` : general[0] || "see the marked fields";
 }
 
-async function post(path, body) {
+/** One line saying what the results show: busy, out of date (and why), or the verdict. */
+function setStatus(text, kind) {
+  byId("status").textContent = text;
+  byId("status").className = `status ${kind || ""}`;
+}
+
+function markStale(reason) {
+  if (!state.current) { setStatus(reason, "stale"); return; }
+  byId("results").classList.add("stale");
+  setStatus(`Out of date: ${reason}. The results below belong to the previous design.`, "stale");
+}
+
+async function post(path, body, signal) {
   const headers = { "Content-Type": "application/json" };
   const key = sessionStorage.getItem("stepline-key");
   if (key) headers.Authorization = `Bearer ${key}`;
-  const response = await fetch(path, { method: "POST", headers, body: JSON.stringify(body) });
+  const response = await fetch(path, { method: "POST", headers, body: JSON.stringify(body), signal });
   return { ok: response.ok, status: response.status, response };
+}
+
+/** Why the service refused, in the page's words (a missing key and a wrong key differ). */
+async function refusal(result) {
+  if (result.status === 401) {
+    byId("access").hidden = false;
+    return sessionStorage.getItem("stepline-key")
+      ? { summary: "the API key was not accepted by this server; check it", problems: [] }
+      : { summary: "this server needs an API key; enter it at the top", problems: [] };
+  }
+  let payload = {};
+  try { payload = await result.response.json(); } catch { /* not JSON: described by its status */ }
+  const problems = payload.problems || [];
+  return { summary: problems.length ? null : `the service answered ${result.status}`, problems };
 }
 
 async function askForKeyIfNeeded() {
@@ -86,19 +191,42 @@ async function askForKeyIfNeeded() {
     const health = await (await fetch("/v1/health")).json();
     byId("access").hidden = !health.key_required;
   } catch (error) {
-    byId("form-error").textContent = `The service did not answer: ${error}`;
+    setStatus(`The service did not answer: ${error.message}`, "stale");
   }
   byId("api-key").value = sessionStorage.getItem("stepline-key") || "";
-  byId("api-key").addEventListener("change", () => sessionStorage.setItem("stepline-key", value("api-key")));
+  byId("api-key").addEventListener("input", () => {
+    sessionStorage.setItem("stepline-key", value("api-key"));
+    markStale("the API key has changed since this design");
+  });
 }
 
-function labelOf(design) {
-  const theory = design.profile ? design.profile : design.theory;
-  return `${design.method} (${theory}), ${design.sections.length} section${design.sections.length === 1 ? "" : "s"}`;
+/** The parts a curve's legend entry can name: what was designed, into what, over which band, in what. */
+function describe(design, request) {
+  const load = request.body.load;
+  const rotating = load.reactance_ohm ? 1 : 0; // a reactive load's rotating line is listed last
+  const count = design.sections.length - rotating;
+  const sections = `${count} section${count === 1 ? "" : "s"}${rotating ? " + rotating line" : ""}`;
+  const sign = load.reactance_ohm < 0 ? "-" : "+";
+  return {
+    design: `${design.method} (${design.profile || design.theory}), ${sections}`,
+    load: `load ${load.resistance_ohm}${sign}j${Math.abs(load.reactance_ohm)} ohm`,
+    band: `${request.body.band.start_hz / 1e9}-${request.body.band.stop_hz / 1e9} GHz`,
+    medium: request.body.medium ? request.body.medium.kind : `line vf ${request.body.velocity_factor}`,
+  };
 }
 
-async function wideCurve(design, request) {
-  if (request.body.medium) return design.response;
+/** Legend entries that name what differs between the curves on the plot. */
+function legendLabels(entries) {
+  const differs = (part) => new Set(entries.map((e) => e.parts[part])).size > 1;
+  const extra = ["load", "band", "medium"].filter(differs);
+  return entries.map((e) => [e.parts.design, ...extra.map((part) => e.parts[part])].join(", "));
+}
+
+/** The response over a wider band than the design's, from the analyze endpoint, where it can give
+ * one (an ideal line of at most 256 sections); otherwise the design's own curve, and why. */
+async function wideCurve(design, request, signal) {
+  if (request.body.medium) return { curve: design.response, note: "Shown over the design band: the wide-band view is for ideal lines (a physical line's widths are set at this band's centre)." };
+  if (design.sections.length > ANALYZE_MAX_SECTIONS) return { curve: design.response, note: `Shown over the design band: the wide-band view takes at most ${ANALYZE_MAX_SECTIONS} sections.` };
   const band = request.body.band;
   const span = band.stop_hz - band.start_hz;
   const analysis = {
@@ -106,25 +234,31 @@ async function wideCurve(design, request) {
     band: { start_hz: Math.max(band.start_hz - 0.35 * span, band.start_hz * 0.05), stop_hz: band.stop_hz + 0.35 * span },
     sections: design.sections.map((s) => ({ impedance_ohm: s.impedance_ohm, length_m: s.length_m })), points: 401,
   };
-  const { ok, response } = await post("/v1/networks/analyze", analysis);
-  return ok ? (await response.json()).response : design.response;
+  const { ok, status, response } = await post("/v1/networks/analyze", analysis, signal);
+  if (ok) return { curve: (await response.json()).response, note: "" };
+  return { curve: design.response, note: `Shown over the design band: the wide-band view was refused (${status}).` };
 }
 
 function drawResponse() {
   if (!state.current) return;
   const returnLoss = document.querySelector('input[name="quantity"]:checked').value === "return-loss";
   const entries = [...state.pinned, state.current];
+  const labels = legendLabels(entries);
+  let clipped = false;
   const series = entries.map((entry, i) => ({
     x: entry.curve.frequency_hz.map((f) => f / 1e9),
-    y: returnLoss ? entry.curve.return_loss_db.map((v) => Math.min(v, 80)) : entry.curve.reflection_magnitude,
-    color: COLORS[i % COLORS.length], label: entry.label,
+    y: returnLoss
+      ? entry.curve.return_loss_db.map((v) => { clipped ||= v > RETURN_LOSS_CEILING_DB; return Math.min(v, RETURN_LOSS_CEILING_DB); })
+      : entry.curve.reflection_magnitude,
+    color: COLORS[i % COLORS.length], label: labels[i],
   }));
   const spec = state.current.design.verified.spec_max_reflection;
+  const specDb = -20 * Math.log10(spec);
   const band = state.request.body.band;
   drawChart(byId("response-plot"), {
     series, xLabel: "frequency (GHz)", yLabel: returnLoss ? "return loss (dB)" : "|reflection|",
     bands: [{ x0: band.start_hz / 1e9, x1: band.stop_hz / 1e9 }], yFromZero: !returnLoss,
-    levels: [{ y: returnLoss ? -20 * Math.log10(spec) : spec, label: `spec ${spec}` }],
+    levels: [{ y: returnLoss ? specDb : spec, label: returnLoss ? `spec ${specDb.toFixed(2)} dB` : `spec |reflection| ${spec}` }],
   });
   byId("legend").replaceChildren(...series.map((s) => {
     const item = document.createElement("span");
@@ -132,6 +266,9 @@ function drawResponse() {
     item.textContent = s.label;
     return item;
   }));
+  const notes = [state.current.note];
+  if (clipped) notes.push(`Return loss above ${RETURN_LOSS_CEILING_DB} dB is drawn at ${RETURN_LOSS_CEILING_DB} dB.`);
+  byId("plot-note").textContent = notes.filter(Boolean).join(" ");
 }
 
 function drawProfile(design, request) {
@@ -153,10 +290,11 @@ function drawProfile(design, request) {
   });
 }
 
-async function drawLayout(request) {
+async function drawLayout(request, signal, mine) {
   const box = byId("layout-box");
   if (!request.body.medium) { box.hidden = true; return; }
-  const { ok, response } = await post("/v1/drawings", { method: request.method, ...request.body });
+  const { ok, response } = await post("/v1/drawings", { method: request.method, ...request.body }, signal);
+  if (mine !== state.sequence) return;
   if (!ok) { box.hidden = true; return; }
   const image = byId("layout");
   if (image.src) URL.revokeObjectURL(image.src);
@@ -164,14 +302,19 @@ async function drawLayout(request) {
   box.hidden = false;
 }
 
-function fill(design) {
+function verdictText(v) {
+  return `${v.meets_spec ? "Meets the spec" : "Misses the spec"}: worst |reflection| ${v.max_reflection.toPrecision(4)} `
+    + `(${v.min_return_loss_db.toFixed(2)} dB return loss) against ${v.spec_max_reflection}.`;
+}
+
+function fill(design, request) {
   const v = design.verified;
   const rows = [
     ["Verdict", v.meets_spec ? "meets the spec" : "misses the spec", v.meets_spec ? "pass" : "fail"],
     ["Worst |reflection|", `${v.max_reflection.toPrecision(4)} at ${(v.worst_frequency_hz / 1e9).toFixed(4)} GHz`],
     ["Worst return loss", `${v.min_return_loss_db.toFixed(2)} dB`],
-    ["Worst VSWR", v.max_vswr.toFixed(4)],
-    ["Spec", `|reflection| <= ${v.spec_max_reflection}`],
+    ["Worst VSWR", v.max_vswr === null ? "unbounded (total reflection)" : v.max_vswr.toFixed(4)],
+    ["Spec", `|reflection| <= ${v.spec_max_reflection} (${(-20 * Math.log10(v.spec_max_reflection)).toFixed(2)} dB)`],
     ["Theory predicted", design.predicted.max_reflection.toPrecision(4)],
     ["Total length", `${(design.total_length_m * 1e3).toFixed(3)} mm`],
   ];
@@ -189,11 +332,24 @@ function fill(design) {
     li.textContent = w;
     return li;
   }));
-  byId("sections-table").tBodies[0].replaceChildren(...design.sections.map((s, i) => {
+  fillSections(design, request, design.sections.length <= LONG_TABLE_ROWS);
+}
+
+/** The section table, or for a long design a summary with the full table on request. */
+function fillSections(design, request, all) {
+  const rotating = request.body.load.reactance_ohm ? design.sections.length - 1 : -1;
+  const impedances = design.sections.map((s) => s.impedance_ohm);
+  byId("table-summary").textContent = all ? "" : `${design.sections.length} sections from ${impedances[0].toFixed(2)} to `
+    + `${impedances[impedances.length - 1].toFixed(2)} ohm, ${(design.total_length_m * 1e3).toFixed(3)} mm in all; `
+    + `the first and last ${LONG_TABLE_ROWS / 2} are listed.`;
+  byId("show-all").hidden = all;
+  const shown = all ? design.sections.map((s, i) => [s, i])
+    : design.sections.map((s, i) => [s, i]).filter(([, i]) => i < LONG_TABLE_ROWS / 2 || i >= design.sections.length - LONG_TABLE_ROWS / 2);
+  byId("sections-table").tBodies[0].replaceChildren(...shown.map(([s, i]) => {
     const tr = document.createElement("tr");
     const size = s.width_m ?? s.inner_diameter_m;
-    for (const cell of [i + 1, s.impedance_ohm.toFixed(3), s.electrical_length_deg.toFixed(2), (s.length_m * 1e3).toFixed(3),
-      size == null ? "-" : (size * 1e3).toFixed(4), s.eps_eff.toFixed(4)]) {
+    for (const cell of [i === rotating ? `${i + 1} (rotating line)` : i + 1, s.impedance_ohm.toFixed(3), s.electrical_length_deg.toFixed(2),
+      (s.length_m * 1e3).toFixed(3), size == null ? "-" : (size * 1e3).toFixed(4), s.eps_eff.toFixed(4)]) {
       const td = document.createElement("td");
       td.textContent = cell;
       tr.appendChild(td);
@@ -205,43 +361,98 @@ function fill(design) {
 function shareQuery() {
   const params = new URLSearchParams();
   for (const id of FORM_IDS) params.set(id, value(id));
+  params.set("view", document.querySelector('input[name="quantity"]:checked').value);
   if (document.body.classList.contains("embed")) params.set("embed", "1");
   return params.toString();
 }
 
+function setBusy(busy) {
+  document.body.dataset.busy = busy ? "1" : "";
+  byId("results").setAttribute("aria-busy", busy ? "true" : "false");
+  byId("design").textContent = busy ? "Designing..." : "Design";
+  if (busy) setStatus("Designing...", "busy");
+}
+
+/** Design what the form says. One request at a time: a new one cancels the one in flight, and an
+ * answer that is no longer the newest is never drawn. */
 async function design(event) {
   if (event) event.preventDefault();
   clearErrors();
-  const request = buildRequest();
-  let result;
+  let request;
   try {
-    result = await post(`/v1/transformers/${request.method}`, request.body);
+    request = buildRequest();
   } catch (error) {
-    byId("form-error").textContent = `The service did not answer: ${error}`;
+    if (!(error instanceof FormProblems)) throw error;
+    markStale(`the form has a problem (${showErrors(error.problems)})`);
     return;
   }
-  const payload = await result.response.json();
-  if (!result.ok) { showErrors(payload.problems || []); return; }
-  state.request = request;
-  state.current = { design: payload, label: labelOf(payload), curve: await wideCurve(payload, request) };
-  const query = shareQuery();
-  history.replaceState(null, "", `?${query}`);
-  byId("share").href = `${location.pathname}?${query}`;
-  drawResponse();
-  drawProfile(payload, request);
-  fill(payload);
-  await drawLayout(request);
-  document.body.dataset.ready = "1";
+  if (state.active) state.active.abort();
+  const controller = new AbortController();
+  state.active = controller;
+  const mine = ++state.sequence;
+  setBusy(true);
+  try {
+    const result = await post(`/v1/transformers/${request.method}`, request.body, controller.signal);
+    if (mine !== state.sequence) return;
+    if (!result.ok) {
+      const { summary, problems } = await refusal(result);
+      if (mine !== state.sequence) return;
+      markStale(`the service refused this form (${summary || showErrors(problems)})`);
+      return;
+    }
+    const payload = await result.response.json();
+    const wide = await wideCurve(payload, request, controller.signal);
+    if (mine !== state.sequence) return;
+    state.request = request;
+    state.current = { design: payload, parts: describe(payload, request), curve: wide.curve, note: wide.note };
+    const query = shareQuery();
+    history.replaceState(null, "", `?${query}`);
+    byId("share").href = `${location.pathname}?${query}`;
+    byId("results").classList.remove("stale");
+    drawResponse();
+    drawProfile(payload, request);
+    fill(payload, request);
+    setStatus(verdictText(payload.verified), payload.verified.meets_spec ? "pass" : "fail");
+    await drawLayout(request, controller.signal, mine);
+  } catch (error) {
+    if (error.name === "AbortError") return;
+    if (mine === state.sequence) markStale(`the service did not answer (${error.message})`);
+  } finally {
+    if (mine === state.sequence) {
+      setBusy(false);
+      state.active = null;
+      document.body.dataset.ready = "1";
+    }
+  }
+}
+
+/** A file name that says what the file holds: method, load and band. */
+function fileName(request, extension) {
+  const load = request.body.load;
+  const sign = load.reactance_ohm < 0 ? "m" : "p";
+  const band = `${request.body.band.start_hz / 1e9}-${request.body.band.stop_hz / 1e9}GHz`;
+  const name = `stepline-${request.method}-${load.resistance_ohm}${sign}j${Math.abs(load.reactance_ohm)}ohm-${band}`;
+  return `${name.replace(/[^A-Za-z0-9.+-]/g, "_")}.${extension}`;
 }
 
 async function download(format) {
   if (!state.request) return;
-  const { ok, response } = await post(`/v1/transformers/${state.request.method}?format=${format}`, state.request.body);
-  if (!ok) return;
-  const link = document.createElement("a");
-  link.href = URL.createObjectURL(await response.blob());
-  link.download = `stepline-${state.request.method}.${format === "csv" ? "csv" : "s2p"}`;
-  link.click();
+  const request = state.request;
+  try {
+    const { ok, status, response } = await post(`/v1/transformers/${request.method}?format=${format}`, request.body);
+    if (!ok) { setStatus(`The ${format} download was refused (${status}).`, "stale"); return; }
+    let blob = await response.blob();
+    if (format === "csv") {
+      const header = Object.entries(request.body).map(([k, v]) => `# ${k}: ${JSON.stringify(v)}`).join("\n");
+      blob = new Blob([`# Stepline ${request.method} design\n${header}\n`, blob], { type: "text/csv" });
+    }
+    const link = document.createElement("a");
+    link.href = URL.createObjectURL(blob);
+    link.download = fileName(request, format === "csv" ? "csv" : "s2p");
+    link.click();
+  } catch (error) {
+    setStatus(`The ${format} download failed: ${error.message}.`, "stale");
+  }
 }
 
 function showRelevantFields() {
@@ -254,7 +465,8 @@ function showRelevantFields() {
   show(".medium-physical", medium !== "ideal");
   show(".medium-board", medium === "microstrip" || medium === "stripline");
   show(".medium-coax", medium === "coax");
-  byId("spec-hint").textContent = specHint(value("spec-form"), number("spec"));
+  const spec = NUMBER.test(value("spec")) ? Number(value("spec")) : null;
+  byId("spec-hint").textContent = specHint(value("spec-form"), spec);
 }
 
 /** The spec in the two forms it was not given in, as a hint beside the field. */
@@ -270,25 +482,48 @@ function specHint(form, spec) {
   return `= |reflection| ${reflection.toPrecision(4)}, ${returnLoss} dB return loss, VSWR ${vswr}`;
 }
 
+/** The form from the link; a choice the page does not offer is said at its field, not sent. */
 function restoreFromUrl() {
   const params = new URLSearchParams(location.search);
-  for (const id of FORM_IDS) if (params.has(id)) byId(id).value = params.get(id);
+  const problems = [];
+  for (const id of FORM_IDS) {
+    if (!params.has(id)) continue;
+    const field = byId(id);
+    const given = params.get(id);
+    if (field.tagName === "SELECT" && ![...field.options].some((o) => o.value === given)) {
+      problems.push({ id, message: `the link asked for "${given}", which is not one of the choices; "${field.value}" is used` });
+      continue;
+    }
+    field.value = given;
+  }
+  const view = document.querySelector(`input[name="quantity"][value="${params.get("view")}"]`);
+  if (view) view.checked = true;
   if (params.get("embed") === "1") document.body.classList.add("embed");
+  return problems;
 }
 
 document.addEventListener("DOMContentLoaded", async () => {
   await askForKeyIfNeeded();
-  restoreFromUrl();
+  const linkProblems = restoreFromUrl();
   showRelevantFields();
   byId("problem").addEventListener("submit", design);
-  byId("problem").addEventListener("input", showRelevantFields);
+  byId("access").addEventListener("submit", design);
+  byId("problem").addEventListener("input", () => {
+    showRelevantFields();
+    if (state.current) markStale("the form has changed since this design; press Design to update");
+  });
   byId("keep").addEventListener("click", () => {
     if (state.current) { state.pinned.push({ ...state.current }); drawResponse(); }
   });
   byId("clear").addEventListener("click", () => { state.pinned = []; drawResponse(); });
-  document.querySelectorAll('input[name="quantity"]').forEach((r) => r.addEventListener("change", drawResponse));
+  byId("show-all").addEventListener("click", () => fillSections(state.current.design, state.request, true));
+  document.querySelectorAll('input[name="quantity"]').forEach((r) => r.addEventListener("change", () => {
+    drawResponse();
+    if (state.current) byId("share").href = `${location.pathname}?${shareQuery()}`;
+  }));
   byId("get-touchstone").addEventListener("click", () => download("touchstone"));
   byId("get-csv").addEventListener("click", () => download("csv"));
   window.addEventListener("resize", drawResponse);
-  design();
+  await design();
+  if (linkProblems.length) showErrors(linkProblems);
 });
