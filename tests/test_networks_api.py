@@ -57,3 +57,36 @@ def test_empty_section_list_is_refused(client, base_request):
     response = analyze(client, base_request | {"sections": []})
     assert response.status_code == 422
     assert response.json()["problems"][0]["field"] == "sections"
+
+
+def test_the_complex_input_reflection_equals_scikit_rf_into_a_complex_load(client, base_request):
+    import numpy as np
+    import skrf
+    from skrf.media import DefinedGammaZ0
+
+    sections = [{"impedance_ohm": z, "length_m": d} for z, d in ((42.0, 0.031), (31.0, 0.047), (24.0, 0.02))]
+    load = {"resistance_ohm": 18.0, "reactance_ohm": -11.0}
+    body = analyze(client, base_request | {"sections": sections, "load": load, "points": 31}).json()
+    ours = np.array(body["input_reflection"]["real"]) + 1j * np.array(body["input_reflection"]["imag"])
+    # Reference: scikit-rf's cascade of ideal lines (DefinedGammaZ0.line) terminated in the load
+    # (DefinedGammaZ0.load), its S11 referred to the 50 ohm source.
+    frequency = skrf.Frequency.from_f(body["response"]["frequency_hz"], unit="Hz")
+    beta = 2 * np.pi * frequency.f / 299_792_458.0
+    lines = [
+        DefinedGammaZ0(frequency, z0_port=50.0, z0=s["impedance_ohm"], gamma=1j * beta).line(s["length_m"], "m")
+        for s in sections
+    ]
+    terminal = DefinedGammaZ0(frequency, z0_port=50.0, z0=50.0, gamma=1j * beta).load(
+        (complex(18.0, -11.0) - 50.0) / (complex(18.0, -11.0) + 50.0)
+    )
+    reference = skrf.network.cascade_list([*lines, terminal]).s[:, 0, 0]
+    assert np.max(np.abs(ours - reference)) < 1e-9
+    assert np.allclose(np.abs(ours), body["response"]["reflection_magnitude"], rtol=1e-9)
+
+
+def test_any_design_the_service_makes_can_be_analyzed(client, base_request):
+    taper = client.post("/v1/transformers/taper", json=base_request | {"segments": 1024}).json()
+    sections = [{"impedance_ohm": s["impedance_ohm"], "length_m": s["length_m"]} for s in taper["sections"]]
+    result = analyze(client, base_request | {"sections": sections})
+    assert result.status_code == 200
+    assert result.json()["verified"]["max_reflection"] == pytest.approx(taper["verified"]["max_reflection"], rel=1e-9)

@@ -193,3 +193,14 @@ def test_a_long_taper_yield_stays_within_its_memory_bound():
     tracemalloc.stop()
     assert figures.trials == 64
     assert peak < 512 * 2**20  # the documented bound per request
+
+
+def test_the_histogram_counts_every_trial_where_its_worst_reflection_falls(client):
+    result = yield_of(client, {"width_m": 30e-6, "eps_r": 0.08})
+    edges, counts = result["histogram"]["edges"], result["histogram"]["counts"]
+    assert len(edges) == len(counts) + 1 and sum(counts) == result["trials"]
+    assert edges[0] <= result["percentiles"]["p50"] <= edges[-1]
+    assert edges[-1] == pytest.approx(result["worst_max_reflection"], rel=1e-12)
+    # The share of trials in bins wholly below the median is at most a half (definition of the median).
+    below = sum(c for c, high in zip(counts, edges[1:], strict=True) if high <= result["percentiles"]["p50"])
+    assert below <= result["trials"] / 2

@@ -133,6 +133,11 @@ class LineCascade:
         gain = network.transducer_gain(abcd, self.source_ohm, load)
         return magnitude, -10.0 * np.log10(np.maximum(gain, 1e-30))
 
+    def input_reflection(self, frequency_hz: np.ndarray) -> np.ndarray:
+        """The complex reflection coefficient at the source end, referred to the source impedance."""
+        load = self.load.impedance_ohm(np.asarray(frequency_hz, dtype=float))
+        return network.reflection(network.input_impedance(self.abcd(frequency_hz), load), self.source_ohm)
+
     def impedances_at(self, frequency_hz: float) -> np.ndarray:
         """Each section's characteristic impedance at one frequency."""
         return self.medium.parameters(self.geometry, np.array([[frequency_hz]])).impedance_ohm[0]

@@ -12,7 +12,7 @@ from service.pipeline.realize import realize
 from service.pipeline.request_models import load_model
 from service.pipeline.shared_blocks import checked_blocks
 from service.schemas.networks import AnalyzeRequest
-from service.schemas.results import AnalysisResult
+from service.schemas.results import AnalysisResult, ComplexReflection
 
 
 def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> AnalysisResult:
@@ -37,4 +37,6 @@ def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> An
     blocks = checked_blocks(line, request, verified, curve, table, options)
     warnings = [*blocks.medium_notes, *spec_warnings(verified)]
     warnings += bode_fano_warnings(blocks.bode_fano, request.spec_reflection)
-    return AnalysisResult(**blocks.fields, warnings=warnings)
+    reflection = line.input_reflection(np.asarray(curve.frequency_hz))
+    complex_curve = ComplexReflection(real=reflection.real.tolist(), imag=reflection.imag.tolist())
+    return AnalysisResult(**blocks.fields, input_reflection=complex_curve, warnings=warnings)

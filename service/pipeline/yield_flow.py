@@ -12,7 +12,9 @@ from service.pipeline.exports import design_line
 from service.pipeline.items import design_item
 from service.pipeline.options import DesignOptions
 from service.pipeline.request_models import medium_model
-from service.schemas.tolerance import ClippedDraws, Percentiles, WorstTrial, YieldRequest, YieldResult
+from service.schemas.tolerance import ClippedDraws, Histogram, Percentiles, WorstTrial, YieldRequest, YieldResult
+
+HISTOGRAM_BINS = 40
 
 METHOD_NOTE = (
     "Monte Carlo: each trial draws normal errors (per-section width, board-wide etch bias, "
@@ -36,6 +38,7 @@ def yield_analysis(request: YieldRequest, options: DesignOptions | None = None) 
     grid = np.linspace(item.band.start_hz, item.band.stop_hz, YIELD_GRID_POINTS)
     figures = monte_carlo(line, grid, item.spec_reflection, tolerances, request.trials, request.seed)
     p50, p90, p95, p99 = np.percentile(figures.worst_reflections, [50, 90, 95, 99])
+    counts, edges = np.histogram(figures.worst_reflections, bins=HISTOGRAM_BINS)
     return YieldResult(
         design=design,
         trials=figures.trials,
@@ -49,6 +52,7 @@ def yield_analysis(request: YieldRequest, options: DesignOptions | None = None) 
         worst_trial=WorstTrial(**figures.worst_trial),
         clipped_draws=ClippedDraws(**figures.clipped),
         percentiles=Percentiles(p50=p50, p90=p90, p95=p95, p99=p99),
+        histogram=Histogram(edges=edges.tolist(), counts=counts.tolist()),
         grid_points=YIELD_GRID_POINTS,
         method=METHOD_NOTE,
     )

@@ -6,6 +6,7 @@ from typing import Annotated
 
 from pydantic import Field, model_validator
 
+from service.constants import MAX_SEGMENTS
 from service.schemas.common import (
     FrequencyHz,
     ImpedanceOhm,
@@ -13,7 +14,7 @@ from service.schemas.common import (
 )
 from service.schemas.transformers import MatchRequest
 
-MAX_ANALYZED_SECTIONS = 256
+MAX_ANALYZED_SECTIONS = MAX_SEGMENTS + 1  # any design the service makes: the longest taper and a rotating section
 
 
 class SectionSpec(StrictModel):

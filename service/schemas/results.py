@@ -73,6 +73,14 @@ class ResponseCurve(DescribedModel):
     )
 
 
+class ComplexReflection(DescribedModel):
+    """The input reflection coefficient (complex, referred to the source impedance) at the response
+    curve's frequencies: what a Smith chart draws."""
+
+    real: list[float]
+    imag: list[float]
+
+
 class BodeFanoFigures(DescribedModel):
     """The Bode-Fano limit for an R-C or R-L load, beside what the line achieves."""
 
@@ -100,6 +108,9 @@ class AnalysisResult(DescribedModel):
     junctions: list[JunctionResult]
     verified: VerifiedFigures
     response: ResponseCurve
+    input_reflection: ComplexReflection | None = Field(
+        None, description="Complex input reflection at the curve's frequencies (given by the analyze endpoint)."
+    )
     velocity_factor: float | None = Field(description="Of the ideal line; null for physical media.")
     medium: str = Field(description="The kind of line: ideal, microstrip, stripline or coax.")
     bode_fano: BodeFanoFigures | None = Field(None, description="Given for lumped R-C and R-L loads.")

@@ -42,6 +42,13 @@ class Percentiles(DescribedModel):
     p99: float
 
 
+class Histogram(DescribedModel):
+    """How the trials' worst in-band reflection is distributed."""
+
+    edges: list[float] = Field(description="Bin edges of |reflection|, one more than the counts, evenly spaced.")
+    counts: list[int] = Field(description="Trials whose worst in-band |reflection| falls in each bin.")
+
+
 class ClippedDraws(DescribedModel):
     """How many random draws were held at a physical floor instead of their drawn value."""
 
@@ -78,5 +85,6 @@ class YieldResult(DescribedModel):
     worst_trial: WorstTrial
     clipped_draws: ClippedDraws
     percentiles: Percentiles
+    histogram: Histogram
     grid_points: int = Field(description="Frequencies over the band at which each trial is evaluated.")
     method: str = Field(description="How the yield was estimated, in words.")
