@@ -11,7 +11,7 @@ from fastapi.middleware.cors import CORSMiddleware
 from fastapi.staticfiles import StaticFiles
 
 from service import __version__
-from service.api import bulk, health, networks, realization, transformers, web
+from service.api import bulk, docs, health, networks, realization, transformers, web
 from service.api.documented import add_key_scheme
 from service.api.middleware import AccessLog, ApiKey, BodyLimit, ShutdownAnswer, configure_access_log
 from service.api.negotiation import FormatNegotiation
@@ -48,7 +48,14 @@ async def _freeze_startup_heap(_: FastAPI) -> AsyncIterator[None]:
 def create_app(settings: Settings | None = None) -> FastAPI:
     """Build the app from settings (from the environment when none are given)."""
     settings = settings or Settings.from_env()
-    app = FastAPI(title="Stepline", version=__version__, description=DESCRIPTION, lifespan=_freeze_startup_heap)
+    app = FastAPI(
+        title="Stepline",
+        version=__version__,
+        description=DESCRIPTION,
+        lifespan=_freeze_startup_heap,
+        docs_url=None,  # served by api/docs.py from local files
+        redoc_url=None,
+    )
     install_error_handlers(app)
     configure_access_log(settings.access_log)
     app.include_router(health.build_router(settings))
@@ -57,6 +64,8 @@ def create_app(settings: Settings | None = None) -> FastAPI:
     app.include_router(realization.build_router(settings))
     app.include_router(bulk.build_router(settings))
     app.include_router(web.router)
+    app.include_router(docs.router)
+    app.mount(docs.ASSETS_PATH, StaticFiles(directory=docs.ASSETS_DIR), name="docs-assets")
     app.mount("/static", StaticFiles(directory=web.WEB_DIR), name="static")
     # The last added runs first. The key and body checks sit inside the headers and CORS layers,
     # so that their 401 and 413 answers carry the same headers as every other answer, and a

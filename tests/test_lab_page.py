@@ -182,13 +182,15 @@ def test_the_page_fits_a_phone_screen(browser, server_url, tmp_path):
     page.screenshot(path=str(tmp_path / "phone.png"), full_page=True)
 
 
-def test_long_tapers_collapse_their_table_and_say_why_the_view_is_narrow(browser, server_url):
-    page = open_page(browser, server_url + "/?method=taper&segments=512")
+def test_long_tapers_collapse_their_table_and_keep_the_wide_view(browser, server_url):
+    page = open_page(browser, server_url + "/?method=taper&segments=1024&medium=microstrip")
     assert page.locator("#sections-table tbody tr").count() == 24
-    assert "512 sections" in page.inner_text("#table-summary")
-    assert "at most 256 sections" in page.inner_text("#plot-note")
+    assert "1024 sections" in page.inner_text("#table-summary")
+    # the wide-band view reaches beyond the 1.8-2.6 GHz band on both sides, centred on it
+    low, high = page.evaluate("[state.current.curve.frequency_hz[0], state.current.curve.frequency_hz.at(-1)]")
+    assert low < 1.8e9 and high > 2.6e9 and (low + high) / 2 == 2.2e9
     page.click("#show-all")
-    assert page.locator("#sections-table tbody tr").count() == 512
+    assert page.locator("#sections-table tbody tr").count() == 1024
 
 
 def test_a_reactive_load_marks_its_rotating_line(browser, server_url):
@@ -214,3 +216,94 @@ def test_embed_mode_on_a_keyed_server_asks_for_the_key(browser):
         page.press("#api-key", "Enter")
         page.wait_for_function("document.getElementById('status').textContent.includes('spec')")
         assert page.locator("#sections-table tbody tr").count() >= 1
+
+
+def test_every_load_form_reaches_the_api(browser, server_url, tmp_path):
+    page = open_page(browser, server_url + "/")
+    page.select_option("#load-kind", "circuit")
+    page.select_option("#circuit-kind", "parallel-rc")
+    page.fill("#circuit-r", "120")
+    page.fill("#circuit-c", "0.6")
+    page.click("#design")
+    page.wait_for_function("state.current && state.current.parts.load.includes('parallel-rc 120 ohm 0.6 pF')")
+    assert "rotating line" in page.inner_text("#legend")  # the circuit is complex at the centre
+    page.select_option("#load-kind", "measured")
+    page.fill("#measured", "1.7, 24, -9\n2.2, 27, -2\n2.7, 31, 6")
+    page.click("#design")
+    page.wait_for_function("state.current.parts.load === 'load measured (3 points)'")
+    assert "design band" in page.inner_text("#plot-note")  # the data end at 2.7 GHz
+    page.fill("#measured", "1.7, 24, -9\n2.2; 27\n2.7, 31, 6")
+    page.click("#design")
+    page.wait_for_function("document.querySelector('.field-error[data-for=\"measured\"]').textContent.includes('line 2')")
+    # A one-port Touchstone file of our own, chosen from disk (S in RI form, 50 ohm reference).
+    file = tmp_path / "feed-antenna.s1p"
+    file.write_text("! demo load\n# GHz S RI R 50\n1.5 -0.30 0.20\n2.2 -0.22 0.24\n3.0 -0.15 0.28\n")
+    page.select_option("#load-kind", "touchstone")
+    page.set_input_files("#touchstone", str(file))
+    page.click("#design")
+    page.wait_for_function("state.current.parts.load === 'load feed-antenna.s1p'")
+    assert page.locator("#smith-plot polyline.in-band").count() == 1
+
+
+def test_losses_views_smith_chart_cursor_and_markers(browser, server_url):
+    page = open_page(browser, server_url + "/?medium=microstrip&method=chebyshev&sections=3&tan-d=0.004&sigma=5.8e7")
+    assert page.is_visible("#loss-plot") and page.locator("#loss-plot path.series").count() == 1
+    assert page.locator("#response-plot circle.marker").count() == 3  # worst point and both band edges
+    assert page.locator("#smith-plot polyline.wide").count() == 1
+    page.click('input[value="vswr"]')
+    assert "spec VSWR 1.105" in page.text_content("#response-plot")  # (1 + 0.05) / (1 - 0.05)
+    page.fill("#y-low", "1")
+    page.fill("#y-high", "1.5")
+    page.dispatch_event("#y-high", "change")
+    assert "1.5" in page.text_content("#response-plot")
+    box = page.locator("#response-plot svg").bounding_box()
+    page.mouse.move(box["x"] + box["width"] / 2, box["y"] + box["height"] / 2)
+    assert "GHz: VSWR" in page.inner_text("#readout")
+
+
+def test_kept_curves_and_the_view_survive_the_link(browser, server_url):
+    page = open_page(browser, server_url + "/")
+    page.click("#keep")
+    page.fill("#load-r", "35")
+    page.click("#design")
+    page.wait_for_function("document.getElementById('legend').children.length === 2")
+    page.click('input[value="return-loss"]')
+    restored = open_page(browser, server_url + page.get_attribute("#share", "href"))
+    restored.wait_for_function("document.getElementById('legend').children.length === 2")
+    legend = restored.inner_text("#legend")
+    assert "load 22+j0 ohm" in legend and "load 35+j0 ohm" in legend  # what differs is named
+    assert restored.is_checked('input[value="return-loss"]') and restored.input_value("#load-r") == "35"
+
+
+def test_compare_yield_and_plot_export(browser, server_url):
+    page = open_page(browser, server_url + "/?medium=microstrip&method=chebyshev&sections=2")
+    page.click("#run-compare")
+    page.wait_for_selector("#compare-table:not([hidden]) tbody tr")
+    assert page.locator("#compare-table tbody tr").count() >= 5
+    page.fill("#trials", "200")
+    page.click("#run-yield")
+    page.wait_for_function("document.getElementById('yield-summary').textContent.includes('Yield')")
+    assert page.locator("#yield-plot path.series").count() == 1
+    assert "not a guarantee" in page.inner_text(".tool.medium-physical")
+    with page.expect_download() as svg:
+        page.click("#export-svg")
+    assert svg.value.suggested_filename.endswith("-reflection.svg")
+    assert "<svg" in open(svg.value.path()).read()
+    with page.expect_download() as png:
+        page.click("#export-png")
+    assert open(png.value.path(), "rb").read(8) == b"\x89PNG\r\n\x1a\n"
+
+
+def test_interactive_docs_work_without_the_internet(browser, server_url):
+    page = browser.new_page()
+    outside = []
+    page.route(
+        "**/*",
+        lambda route: route.continue_()
+        if route.request.url.startswith(server_url)
+        else (outside.append(route.request.url), route.abort()),
+    )
+    page.goto(server_url + "/docs")
+    page.wait_for_selector(".swagger-ui .info .title", timeout=20000)
+    assert "Stepline" in page.inner_text(".swagger-ui .info .title")
+    assert outside == []

@@ -201,3 +201,18 @@ def test_designs_approach_but_never_beat_the_bode_fano_limit(client, base_reques
         zl = 100.0 / (1 + 1j * 2 * np.pi * f * 100.0 * 5e-12)
         gamma = np.abs(network.reflection(network.input_impedance(abcd, zl), 50.0))
         assert np.trapezoid(np.log(1 / gamma), 2 * np.pi * f) <= math.pi / (100.0 * 5e-12)
+
+
+@pytest.mark.parametrize(
+    "load, rotating",
+    [
+        ({"resistance_ohm": 30.0}, False),
+        ({"resistance_ohm": 30.0, "reactance_ohm": -20.0}, True),
+        ({"circuit": {"kind": "parallel-rc", "resistance_ohm": 120.0, "capacitance_f": 6e-13}}, True),
+    ],
+)
+def test_the_rotating_section_is_said_and_comes_on_top_of_the_asked_count(client, load, rotating):
+    body = {"source_ohm": 50.0, "load": load, "band": {"start_hz": 1e9, "stop_hz": 3e9}, "sections": 2}
+    design = client.post("/v1/transformers/chebyshev", json=body).json()
+    assert design["rotating_section"] is rotating
+    assert len(design["sections"]) == 2 + rotating

@@ -90,3 +90,26 @@ def test_any_design_the_service_makes_can_be_analyzed(client, base_request):
     result = analyze(client, base_request | {"sections": sections})
     assert result.status_code == 200
     assert result.json()["verified"]["max_reflection"] == pytest.approx(taper["verified"]["max_reflection"], rel=1e-9)
+
+
+@pytest.mark.parametrize("load", [{"resistance_ohm": 20.0}, {"resistance_ohm": 30.0, "reactance_ohm": -25.0}])
+def test_a_physical_design_analyzed_over_a_band_of_the_same_centre_is_the_same_line(client, load):
+    # The lab page's wide-band view: widths are set at the band centre, so a band widened on both
+    # sides by the same amount realizes the same strips, and the curves agree inside the band.
+    microstrip = {"kind": "microstrip", "eps_r": 3.66, "height_m": 0.508e-3, "thickness_m": 35e-6}
+    request = {"source_ohm": 50.0, "load": load, "band": {"start_hz": 2e9, "stop_hz": 4e9}, "points": 201}
+    design = client.post("/v1/transformers/chebyshev", json=request | {"sections": 3, "medium": microstrip}).json()
+    sections = [{"impedance_ohm": s["impedance_ohm"], "length_m": s["length_m"]} for s in design["sections"]]
+    wide = {"start_hz": 1.3e9, "stop_hz": 4.7e9}
+    body = analyze(client, request | {"band": wide, "points": 341, "medium": microstrip, "sections": sections}).json()
+    assert [s["width_m"] for s in body["sections"]] == pytest.approx([s["width_m"] for s in design["sections"]], rel=1e-9)
+    inside = body["response"]["reflection_magnitude"][70:271]
+    assert inside == pytest.approx(design["response"]["reflection_magnitude"], rel=1e-6, abs=1e-9)
+
+
+def test_measured_data_are_never_extrapolated_by_the_analysis(client, base_request):
+    points = [{"frequency_hz": f, "resistance_ohm": 30.0, "reactance_ohm": 5.0} for f in (1.2e9, 2.0e9, 2.8e9)]
+    body = base_request | {"load": {"measured": points}, "sections": [{"impedance_ohm": 40, "length_m": 0.03}]}
+    refused = analyze(client, body)  # the band is 1-3 GHz, the data 1.2-2.8 GHz
+    assert refused.status_code == 422 and refused.json()["problems"][0]["field"] == "band"
+    assert analyze(client, body | {"band": {"start_hz": 1.2e9, "stop_hz": 2.8e9}}).status_code == 200

@@ -9,8 +9,8 @@ from service.analysis.worst_case import check
 from service.pipeline.messages import bode_fano_warnings, spec_warnings
 from service.pipeline.options import DesignOptions
 from service.pipeline.realize import realize
-from service.pipeline.request_models import load_model
 from service.pipeline.shared_blocks import checked_blocks
+from service.pipeline.target import covered_load
 from service.schemas.networks import AnalyzeRequest
 from service.schemas.results import AnalysisResult, ComplexReflection
 
@@ -26,7 +26,7 @@ def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> An
     impedances = np.array([s.impedance_ohm for s in request.sections])
     angles = np.array([np.deg2rad(s.electrical_length_deg or 0.0) for s in request.sections])
     references = np.array([s.reference_hz or center for s in request.sections])
-    line = realize(request, load_model(request.load), impedances, angles, references)
+    line = realize(request, covered_load(request), impedances, angles, references)
     given = np.array([s.length_m is not None for s in request.sections])
     if np.any(given):
         physical = np.array([s.length_m or 0.0 for s in request.sections])

@@ -31,8 +31,9 @@ class Target:
         return replace(self, resistance_ohm=resistance_ohm, rotation=None)
 
 
-def target_for(request: MatchRequest) -> Target:
-    """The load model, its centre-frequency impedance turned real, and the band edge angle."""
+def covered_load(request: MatchRequest) -> LoadModel:
+    """The request's load model; a 422 on `band` where the band reaches beyond measured data (they
+    are never extrapolated)."""
     load = load_model(request.load)
     band = request.band
     covered = load.frequency_range_hz()
@@ -40,6 +41,13 @@ def target_for(request: MatchRequest) -> Target:
         raise UnmeetableRequestError(
             "band", f"the band reaches beyond the load data, which cover {covered[0]:g} to {covered[1]:g} Hz"
         )
+    return load
+
+
+def target_for(request: MatchRequest) -> Target:
+    """The load model, its centre-frequency impedance turned real, and the band edge angle."""
+    load = covered_load(request)
+    band = request.band
     center = impedance_at(load, band.center_hz)
     if not center.real > 0.0 or abs((center - request.source_ohm) / (center + request.source_ohm)) >= TOTAL_REFLECTION:
         raise UnmeetableRequestError(

@@ -171,6 +171,7 @@ def _assemble(
     warnings += total_reflection_warnings(verified)
     warnings += plausibility_warnings(band.stop_hz, float(line.lengths_m.sum()))
     fields = {"method": pending.method, "theory": theory, "predicted": predicted, "refinement": refinement}
+    fields["rotating_section"] = target.rotation is not None
     fields |= blocks.fields | {"warnings": warnings}
     return DesignSummary.picked(fields, include_curve=False) if summary else TransformerDesign(**fields)
 

@@ -126,6 +126,11 @@ class TransformerDesign(AnalysisResult):
     method: str
     theory: str
     profile: str | None = Field(None, description="The taper profile, for method 'taper'.")
+    rotating_section: bool = Field(
+        False,
+        description="Whether the last section is the line of source impedance added at a complex load to turn it "
+        "real at the band centre (not one of the method's own sections).",
+    )
     predicted: PredictedFigures
     refinement: RefinementFigures | None = Field(
         None,

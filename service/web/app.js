@@ -1,22 +1,26 @@
 /* The lab page: read the form, ask the API, draw what comes back. No outside scripts. */
 "use strict";
 
-const FORM_IDS = ["source", "load-r", "load-x", "start", "stop", "spec-form", "spec", "method", "theory", "sections",
-  "profile", "segments", "medium", "vf", "eps-r", "height", "thickness", "outer"];
+const FORM_IDS = ["source", "load-kind", "load-r", "load-x", "circuit-kind", "circuit-r", "circuit-l", "circuit-c", "measured",
+  "start", "stop", "spec-form", "spec", "method", "theory", "sections", "profile", "segments", "medium", "vf", "eps-r",
+  "height", "thickness", "outer", "tan-d", "sigma", "rough", "y-low", "y-high"];
 const FIELD_INPUTS = {
   source_ohm: "source", load: "load-r", "load.resistance_ohm": "load-r", "load.reactance_ohm": "load-x",
   band: "start", "band.start_hz": "start", "band.stop_hz": "stop", max_reflection: "spec", min_return_loss_db: "spec", max_vswr: "spec",
   sections: "sections", theory: "theory", profile: "profile", segments: "segments", velocity_factor: "vf",
   medium: "medium", "medium.velocity_factor": "vf", "medium.eps_r": "eps-r", "medium.height_m": "height",
   "medium.ground_spacing_m": "height", "medium.thickness_m": "thickness", "medium.outer_diameter_m": "outer",
-  authorization: "api-key",
+  authorization: "api-key", "load.circuit": "circuit-r", "load.measured": "measured", "load.touchstone": "touchstone",
+  "medium.loss_tangent": "tan-d", "medium.conductivity_s_per_m": "sigma", "medium.roughness_m": "rough",
 };
 // Never the spec line's red (#a8321e): a design's peaks sit on that line.
 const COLORS = ["#1f6f6a", "#b8733a", "#5a4fa2", "#2b6cb0", "#3f7f2f", "#8a5a00", "#7a3b69", "#4a5568"];
 const RETURN_LOSS_CEILING_DB = 80;
 const LONG_TABLE_ROWS = 24;
 const ANALYZE_MAX_SECTIONS = 256;
-const state = { current: null, pinned: [], request: null, active: null, sequence: 0 };
+const state = { current: null, pinned: [], request: null, active: null, sequence: 0, touchstone: null };
+const WIDE_FRACTION = 0.35; // the wide-band view reaches this fraction of the band beyond each edge
+const VSWR_CEILING = 100;
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
 // What each number field is called on the page, what blank means (null: required) and its range.
@@ -34,6 +38,14 @@ const NUMBER_FIELDS = {
   height: { label: "Substrate height / ground spacing", unit: "mm", check: (v) => (v > 0 ? null : "must be above 0 mm") },
   thickness: { label: "Conductor thickness", unit: "um", check: (v) => (v >= 0 ? null : "cannot be negative") },
   outer: { label: "Outer diameter", unit: "mm", check: (v) => (v > 0 ? null : "must be above 0 mm") },
+  "circuit-r": { label: "Circuit resistance", unit: "ohm", check: (v) => (v > 0 ? null : "must be above 0 ohm") },
+  "circuit-l": { label: "Inductance", unit: "nH", check: (v) => (v > 0 ? null : "must be above 0 nH") },
+  "circuit-c": { label: "Capacitance", unit: "pF", check: (v) => (v > 0 ? null : "must be above 0 pF") },
+  "tan-d": { label: "Loss tangent", optional: true, check: (v) => (v >= 0 && v < 1 ? null : "must be from 0 to below 1") },
+  sigma: { label: "Conductivity", unit: "S/m", optional: true, check: (v) => (v > 0 ? null : "must be above 0 S/m") },
+  rough: { label: "Surface roughness", unit: "um", optional: true, check: (v) => (v >= 0 ? null : "cannot be negative") },
+  "y-low": { label: "y from", optional: true, check: () => null },
+  "y-high": { label: "y to", optional: true, check: () => null },
 };
 // API names that can appear in the service's messages, in the page's words.
 const API_WORDS = [
@@ -84,7 +96,7 @@ function buildRequest() {
   const method = value("method");
   const body = {
     source_ohm: number("source", 1, problems),
-    load: { resistance_ohm: number("load-r", 1, problems), reactance_ohm: number("load-x", 1, problems) },
+    load: loadOf(problems),
     band: { start_hz: number("start", 1e9, problems), stop_hz: number("stop", 1e9, problems) },
     points: 201,
   };
@@ -110,8 +122,49 @@ function buildRequest() {
     body.medium = { kind: medium, eps_r: number("eps-r", 1, problems), thickness_m: number("thickness", 1e-6, problems) };
     body.medium[medium === "microstrip" ? "height_m" : "ground_spacing_m"] = number("height", 1e-3, problems);
   }
+  if (body.medium) {
+    for (const [id, name, scale] of [["tan-d", "loss_tangent", 1], ["sigma", "conductivity_s_per_m", 1], ["rough", "roughness_m", 1e-6]]) {
+      const given = number(id, scale, problems);
+      if (given !== null) body.medium[name] = given;
+    }
+  }
   if (problems.length) throw new FormProblems(problems);
   return { method, body };
+}
+
+/** The load in the form it is given in: fixed R + jX, a lumped circuit, measured points or a file. */
+function loadOf(problems) {
+  const kind = value("load-kind");
+  if (kind === "circuit") {
+    const circuit = value("circuit-kind");
+    const load = { circuit: { kind: circuit, resistance_ohm: number("circuit-r", 1, problems) } };
+    if (circuit.endsWith("l")) load.circuit.inductance_h = number("circuit-l", 1e-9, problems);
+    else load.circuit.capacitance_f = number("circuit-c", 1e-12, problems);
+    return load;
+  }
+  if (kind === "measured") return { measured: measuredPoints(problems) };
+  if (kind === "touchstone") {
+    if (!state.touchstone) problems.push({ id: "touchstone", message: "choose a one-port Touchstone file" });
+    return { touchstone: state.touchstone ? state.touchstone.text : "" };
+  }
+  return { resistance_ohm: number("load-r", 1, problems), reactance_ohm: number("load-x", 1, problems) };
+}
+
+/** The measured-points text as points: three numbers a line (GHz, ohm, ohm), commas or tabs between. */
+function measuredPoints(problems) {
+  const points = [];
+  const lines = value("measured").split(/\r?\n/).map((line) => line.trim()).filter((line) => line && !line.startsWith("#"));
+  for (const [index, line] of lines.entries()) {
+    const cells = line.split(/\s*[,;\t]\s*|\s+/);
+    if (cells.length !== 3 || !cells.every((cell) => NUMBER.test(cell))) {
+      problems.push({ id: "measured", message: `line ${index + 1} ("${line}") is not three numbers: frequency (GHz), R (ohm), X (ohm)` });
+      return [];
+    }
+    const [f, r, x] = cells.map(Number);
+    points.push({ frequency_hz: f * 1e9, resistance_ohm: r, reactance_ohm: x });
+  }
+  if (points.length < 2) problems.push({ id: "measured", message: "give at least two points that cover the band" });
+  return points;
 }
 
 /** The service's message in the page's words. */
@@ -202,17 +255,27 @@ async function askForKeyIfNeeded() {
 
 /** The parts a curve's legend entry can name: what was designed, into what, over which band, in what. */
 function describe(design, request) {
-  const load = request.body.load;
-  const rotating = load.reactance_ohm ? 1 : 0; // a reactive load's rotating line is listed last
+  const rotating = design.rotating_section ? 1 : 0;
   const count = design.sections.length - rotating;
   const sections = `${count} section${count === 1 ? "" : "s"}${rotating ? " + rotating line" : ""}`;
-  const sign = load.reactance_ohm < 0 ? "-" : "+";
   return {
     design: `${design.method} (${design.profile || design.theory}), ${sections}`,
-    load: `load ${load.resistance_ohm}${sign}j${Math.abs(load.reactance_ohm)} ohm`,
+    load: loadText(request.body.load),
     band: `${request.body.band.start_hz / 1e9}-${request.body.band.stop_hz / 1e9} GHz`,
     medium: request.body.medium ? request.body.medium.kind : `line vf ${request.body.velocity_factor}`,
   };
+}
+
+function loadText(load) {
+  if (load.circuit) {
+    const c = load.circuit;
+    const element = c.inductance_h ? `${+(c.inductance_h * 1e9).toPrecision(4)} nH` : `${+(c.capacitance_f * 1e12).toPrecision(4)} pF`;
+    return `load ${c.kind} ${c.resistance_ohm} ohm ${element}`;
+  }
+  if (load.measured) return `load measured (${load.measured.length} points)`;
+  if (load.touchstone !== undefined) return `load ${state.touchstone ? state.touchstone.name : "file"}`;
+  const sign = load.reactance_ohm < 0 ? "-" : "+";
+  return `load ${load.resistance_ohm}${sign}j${Math.abs(load.reactance_ohm)} ohm`;
 }
 
 /** Legend entries that name what differs between the curves on the plot. */
@@ -222,43 +285,90 @@ function legendLabels(entries) {
   return entries.map((e) => [e.parts.design, ...extra.map((part) => e.parts[part])].join(", "));
 }
 
-/** The response over a wider band than the design's, from the analyze endpoint, where it can give
- * one (an ideal line of at most 256 sections); otherwise the design's own curve, and why. */
+/** The design's response and complex input reflection over a wider band than its own, from the
+ * analyze endpoint: the same sections (by impedance and physical length) over a band widened
+ * symmetrically, so its centre, where a physical line's widths are set, stays the design's. Where
+ * the load's data do not reach that far, over the design band. */
 async function wideCurve(design, request, signal) {
-  if (request.body.medium) return { curve: design.response, note: "Shown over the design band: the wide-band view is for ideal lines (a physical line's widths are set at this band's centre)." };
-  if (design.sections.length > ANALYZE_MAX_SECTIONS) return { curve: design.response, note: `Shown over the design band: the wide-band view takes at most ${ANALYZE_MAX_SECTIONS} sections.` };
   const band = request.body.band;
-  const span = band.stop_hz - band.start_hz;
-  const analysis = {
-    source_ohm: request.body.source_ohm, load: request.body.load, velocity_factor: request.body.velocity_factor,
-    band: { start_hz: Math.max(band.start_hz - 0.35 * span, band.start_hz * 0.05), stop_hz: band.stop_hz + 0.35 * span },
-    sections: design.sections.map((s) => ({ impedance_ohm: s.impedance_ohm, length_m: s.length_m })), points: 401,
-  };
-  const { ok, status, response } = await post("/v1/networks/analyze", analysis, signal);
-  if (ok) return { curve: (await response.json()).response, note: "" };
-  return { curve: design.response, note: `Shown over the design band: the wide-band view was refused (${status}).` };
+  const reach = Math.min(WIDE_FRACTION * (band.stop_hz - band.start_hz), 0.95 * band.start_hz);
+  const analysis = { ...request.body, points: 401 };
+  for (const name of METHOD_ONLY_FIELDS) delete analysis[name];
+  analysis.sections = design.sections.map((s) => ({ impedance_ohm: s.impedance_ohm, length_m: s.length_m }));
+  for (const [wide, note] of [[true, ""], [false, "Shown over the design band: the load's data do not reach beyond it."]]) {
+    const body = { ...analysis, band: wide ? { start_hz: band.start_hz - reach, stop_hz: band.stop_hz + reach } : band };
+    const { ok, status, response } = await post("/v1/networks/analyze", body, signal);
+    if (ok) {
+      const result = await response.json();
+      return { curve: result.response, reflection: result.input_reflection, note };
+    }
+    if (status !== 422) return { curve: design.response, reflection: null, note: `The wide-band view was refused (${status}).` };
+  }
+  return { curve: design.response, reflection: null, note: "The wide-band view was refused for this design." };
+}
+
+/** What the plot shows of a curve: |reflection|, return loss (dB) or VSWR, and how it is drawn. */
+function view() {
+  return document.querySelector('input[name="quantity"]:checked').value;
+}
+
+function viewed(reflection, which) {
+  if (which === "return-loss") return Math.min(-20 * Math.log10(Math.max(reflection, 1e-15)), RETURN_LOSS_CEILING_DB);
+  if (which === "vswr") return reflection >= 1 ? VSWR_CEILING : Math.min((1 + reflection) / (1 - reflection), VSWR_CEILING);
+  return reflection;
+}
+
+const VIEW_NAMES = { reflection: "|reflection|", "return-loss": "return loss (dB)", vswr: "VSWR" };
+
+function readLimits() {
+  const problems = [];
+  const low = number("y-low", 1, problems);
+  const high = number("y-high", 1, problems);
+  if (low !== null && high !== null && high <= low) problems.push({ id: "y-low", message: "'y to' must be above 'y from'" });
+  if (problems.length) { showErrors(problems); return {}; }
+  return { low, high };
+}
+
+/** The value of a curve at a frequency (linear between its points). */
+function valueAt(curve, frequency) {
+  const f = curve.frequency_hz;
+  let i = f.findIndex((x) => x >= frequency);
+  if (i <= 0) i = i === 0 ? 1 : f.length - 1;
+  const t = (frequency - f[i - 1]) / (f[i] - f[i - 1] || 1);
+  return curve.reflection_magnitude[i - 1] + t * (curve.reflection_magnitude[i] - curve.reflection_magnitude[i - 1]);
 }
 
 function drawResponse() {
   if (!state.current) return;
-  const returnLoss = document.querySelector('input[name="quantity"]:checked').value === "return-loss";
+  const which = view();
   const entries = [...state.pinned, state.current];
   const labels = legendLabels(entries);
+  const clippedAt = { "return-loss": RETURN_LOSS_CEILING_DB, vswr: VSWR_CEILING }[which];
   let clipped = false;
   const series = entries.map((entry, i) => ({
     x: entry.curve.frequency_hz.map((f) => f / 1e9),
-    y: returnLoss
-      ? entry.curve.return_loss_db.map((v) => { clipped ||= v > RETURN_LOSS_CEILING_DB; return Math.min(v, RETURN_LOSS_CEILING_DB); })
-      : entry.curve.reflection_magnitude,
+    y: entry.curve.reflection_magnitude.map((g) => {
+      const shown = viewed(g, which);
+      clipped ||= clippedAt !== undefined && shown >= clippedAt;
+      return shown;
+    }),
     color: COLORS[i % COLORS.length], label: labels[i],
   }));
-  const spec = state.current.design.verified.spec_max_reflection;
-  const specDb = -20 * Math.log10(spec);
+  const verified = state.current.design.verified;
+  const spec = verified.spec_max_reflection;
   const band = state.request.body.band;
+  const specLabels = { reflection: `spec |reflection| ${spec}`, "return-loss": `spec ${viewed(spec, "return-loss").toFixed(2)} dB`, vswr: `spec VSWR ${viewed(spec, "vswr").toFixed(3)}` };
+  const curve = state.current.curve;
+  const markers = [
+    { x: verified.worst_frequency_hz / 1e9, y: viewed(verified.max_reflection, which), label: "worst" },
+    { x: band.start_hz / 1e9, y: viewed(valueAt(curve, band.start_hz), which), label: "start" },
+    { x: band.stop_hz / 1e9, y: viewed(valueAt(curve, band.stop_hz), which), label: "stop" },
+  ];
   drawChart(byId("response-plot"), {
-    series, xLabel: "frequency (GHz)", yLabel: returnLoss ? "return loss (dB)" : "|reflection|",
-    bands: [{ x0: band.start_hz / 1e9, x1: band.stop_hz / 1e9 }], yFromZero: !returnLoss,
-    levels: [{ y: returnLoss ? specDb : spec, label: returnLoss ? `spec ${specDb.toFixed(2)} dB` : `spec |reflection| ${spec}` }],
+    series, xLabel: "frequency (GHz)", yLabel: VIEW_NAMES[which],
+    bands: [{ x0: band.start_hz / 1e9, x1: band.stop_hz / 1e9 }], yFromZero: which === "reflection",
+    levels: [{ y: viewed(spec, which), label: specLabels[which] }], yLimits: readLimits(), markers,
+    readout: { element: byId("readout"), format: (x, y) => `${x.toFixed(4)} GHz: ${VIEW_NAMES[which]} ${y.toPrecision(4)}` },
   });
   byId("legend").replaceChildren(...series.map((s) => {
     const item = document.createElement("span");
@@ -267,23 +377,58 @@ function drawResponse() {
     return item;
   }));
   const notes = [state.current.note];
-  if (clipped) notes.push(`Return loss above ${RETURN_LOSS_CEILING_DB} dB is drawn at ${RETURN_LOSS_CEILING_DB} dB.`);
+  if (clipped) notes.push(`Values beyond ${clippedAt} are drawn at ${clippedAt}.`);
   byId("plot-note").textContent = notes.filter(Boolean).join(" ");
+  drawLoss(entries, labels);
+  drawSmithOf(entries);
 }
 
+function drawLoss(entries, labels) {
+  const lossy = entries.filter((e) => e.curve.insertion_loss_db);
+  byId("loss-box").hidden = lossy.length === 0;
+  if (!lossy.length) return;
+  drawChart(byId("loss-plot"), {
+    series: lossy.map((e) => ({ x: e.curve.frequency_hz.map((f) => f / 1e9), y: e.curve.insertion_loss_db, color: COLORS[entries.indexOf(e) % COLORS.length], label: labels[entries.indexOf(e)] })),
+    xLabel: "frequency (GHz)", yLabel: "insertion loss (dB)", height: 220, yFromZero: true,
+    bands: [{ x0: state.request.body.band.start_hz / 1e9, x1: state.request.body.band.stop_hz / 1e9 }],
+  });
+}
+
+function drawSmithOf(entries) {
+  const curves = entries.filter((e) => e.reflection).map((e) => ({
+    re: e.reflection.real, im: e.reflection.imag, color: COLORS[entries.indexOf(e) % COLORS.length],
+    inBand: e.curve.frequency_hz.map((f) => f >= e.band.start_hz && f <= e.band.stop_hz),
+  }));
+  const current = state.current;
+  const markers = [];
+  if (current.reflection) {
+    const f = current.curve.frequency_hz;
+    for (const [edge, label] of [[current.band.start_hz, "start"], [current.band.stop_hz, "stop"]]) {
+      const i = f.reduce((best, x, k) => (Math.abs(x - edge) < Math.abs(f[best] - edge) ? k : best), 0);
+      markers.push({ re: current.reflection.real[i], im: current.reflection.imag[i], label });
+    }
+  }
+  drawSmith(byId("smith-plot"), { curves, markers });
+}
+
+/** Impedance along the line: the source line, each section, and a fixed load's resistance (other
+ * loads have no one impedance, so the line ends at the last section). */
 function drawProfile(design, request) {
   const lengths = design.sections.map((s) => s.length_m * 1e3);
   const total = lengths.reduce((a, b) => a + b, 0);
+  const load = request.body.load.resistance_ohm;
   const x = [-0.12 * total, 0];
   const y = [request.body.source_ohm, design.sections[0].impedance_ohm];
   let position = 0;
   design.sections.forEach((section, i) => {
     position += lengths[i];
     x.push(position);
-    y.push(i + 1 < design.sections.length ? design.sections[i + 1].impedance_ohm : request.body.load.resistance_ohm);
+    y.push(i + 1 < design.sections.length ? design.sections[i + 1].impedance_ohm : load ?? section.impedance_ohm);
   });
-  x.push(1.12 * total);
-  y.push(request.body.load.resistance_ohm);
+  if (load !== undefined) {
+    x.push(1.12 * total);
+    y.push(load);
+  }
   drawChart(byId("profile-plot"), {
     series: [{ x, y, color: "#b8733a", step: true, label: "impedance" }],
     xLabel: "position from the source end (mm)", yLabel: "impedance (ohm)", height: 220,
@@ -337,7 +482,7 @@ function fill(design, request) {
 
 /** The section table, or for a long design a summary with the full table on request. */
 function fillSections(design, request, all) {
-  const rotating = request.body.load.reactance_ohm ? design.sections.length - 1 : -1;
+  const rotating = design.rotating_section ? design.sections.length - 1 : -1;
   const impedances = design.sections.map((s) => s.impedance_ohm);
   byId("table-summary").textContent = all ? "" : `${design.sections.length} sections from ${impedances[0].toFixed(2)} to `
     + `${impedances[impedances.length - 1].toFixed(2)} ohm, ${(design.total_length_m * 1e3).toFixed(3)} mm in all; `
@@ -358,10 +503,17 @@ function fillSections(design, request, all) {
   }));
 }
 
-function shareQuery() {
+/** The form's fields as a query string. */
+function formQuery() {
   const params = new URLSearchParams();
   for (const id of FORM_IDS) params.set(id, value(id));
-  params.set("view", document.querySelector('input[name="quantity"]:checked').value);
+  return params.toString();
+}
+
+function shareQuery() {
+  const params = new URLSearchParams(state.current ? state.current.query : formQuery());
+  params.set("view", view());
+  if (state.pinned.length) params.set("keep", JSON.stringify(state.pinned.map((entry) => entry.query)));
   if (document.body.classList.contains("embed")) params.set("embed", "1");
   return params.toString();
 }
@@ -404,7 +556,10 @@ async function design(event) {
     const wide = await wideCurve(payload, request, controller.signal);
     if (mine !== state.sequence) return;
     state.request = request;
-    state.current = { design: payload, parts: describe(payload, request), curve: wide.curve, note: wide.note };
+    state.current = {
+      design: payload, parts: describe(payload, request), curve: wide.curve, reflection: wide.reflection,
+      note: wide.note, band: request.body.band, query: formQuery(),
+    };
     const query = shareQuery();
     history.replaceState(null, "", `?${query}`);
     byId("share").href = `${location.pathname}?${query}`;
@@ -446,10 +601,7 @@ async function download(format) {
       const header = Object.entries(request.body).map(([k, v]) => `# ${k}: ${JSON.stringify(v)}`).join("\n");
       blob = new Blob([`# Stepline ${request.method} design\n${header}\n`, blob], { type: "text/csv" });
     }
-    const link = document.createElement("a");
-    link.href = URL.createObjectURL(blob);
-    link.download = fileName(request, format === "csv" ? "csv" : "s2p");
-    link.click();
+    save(blob, fileName(request, format === "csv" ? "csv" : "s2p"));
   } catch (error) {
     setStatus(`The ${format} download failed: ${error.message}.`, "stale");
   }
@@ -465,6 +617,10 @@ function showRelevantFields() {
   show(".medium-physical", medium !== "ideal");
   show(".medium-board", medium === "microstrip" || medium === "stripline");
   show(".medium-coax", medium === "coax");
+  const load = value("load-kind");
+  for (const kind of ["fixed", "circuit", "measured", "touchstone"]) show(`.load-${kind}`, load === kind);
+  show(".circuit-l", value("circuit-kind").endsWith("l"));
+  show(".circuit-c", value("circuit-kind").endsWith("c"));
   const spec = NUMBER.test(value("spec")) ? Number(value("spec")) : null;
   byId("spec-hint").textContent = specHint(value("spec-form"), spec);
 }
@@ -502,6 +658,51 @@ function restoreFromUrl() {
   return problems;
 }
 
+/** The kept curves a link names (each a form's query): designed one by one and pinned, the form
+ * then put back as the link gave it. */
+async function restoreKept() {
+  let kept = [];
+  try { kept = JSON.parse(new URLSearchParams(location.search).get("keep") || "[]"); } catch { kept = []; }
+  if (!Array.isArray(kept) || !kept.length) return;
+  const own = formQuery();
+  for (const query of kept.filter((q) => typeof q === "string")) {
+    const params = new URLSearchParams(query);
+    for (const id of FORM_IDS) if (params.has(id)) byId(id).value = params.get(id);
+    await design();
+    if (state.current && !byId("results").classList.contains("stale")) state.pinned.push({ ...state.current });
+  }
+  const params = new URLSearchParams(own);
+  for (const id of FORM_IDS) byId(id).value = params.get(id);
+  showRelevantFields();
+}
+
+/** Save a blob under a name, as a download. */
+function save(blob, name) {
+  const link = document.createElement("a");
+  link.href = URL.createObjectURL(blob);
+  link.download = name;
+  link.click();
+}
+
+async function exportPlot(kind) {
+  if (!state.request) return;
+  const name = fileName(state.request, kind).replace(/\.(svg|png)$/, `-${view()}.${kind}`);
+  try {
+    if (kind === "svg") save(new Blob([chartSvgText(byId("response-plot"))], { type: "image/svg+xml" }), name);
+    else save(await chartPng(byId("response-plot")), name);
+  } catch (error) {
+    setStatus(`The plot could not be exported: ${error.message}.`, "stale");
+  }
+}
+
+/** Read a chosen Touchstone file's text; it goes in the request's load. */
+async function readTouchstone() {
+  const file = byId("touchstone").files[0];
+  state.touchstone = file ? { name: file.name, text: await file.text() } : null;
+  byId("touchstone-name").textContent = file ? `${file.name}, ${file.size} bytes` : "";
+  if (state.current) markStale("the load file has changed since this design; press Design to update");
+}
+
 document.addEventListener("DOMContentLoaded", async () => {
   await askForKeyIfNeeded();
   const linkProblems = restoreFromUrl();
@@ -512,18 +713,26 @@ document.addEventListener("DOMContentLoaded", async () => {
     showRelevantFields();
     if (state.current) markStale("the form has changed since this design; press Design to update");
   });
+  const relink = () => { if (state.current) byId("share").href = `${location.pathname}?${shareQuery()}`; };
   byId("keep").addEventListener("click", () => {
-    if (state.current) { state.pinned.push({ ...state.current }); drawResponse(); }
+    if (state.current) { state.pinned.push({ ...state.current }); drawResponse(); relink(); }
   });
-  byId("clear").addEventListener("click", () => { state.pinned = []; drawResponse(); });
+  byId("clear").addEventListener("click", () => { state.pinned = []; drawResponse(); relink(); });
   byId("show-all").addEventListener("click", () => fillSections(state.current.design, state.request, true));
   document.querySelectorAll('input[name="quantity"]').forEach((r) => r.addEventListener("change", () => {
     drawResponse();
     if (state.current) byId("share").href = `${location.pathname}?${shareQuery()}`;
   }));
+  byId("touchstone").addEventListener("change", readTouchstone);
+  byId("export-svg").addEventListener("click", () => exportPlot("svg"));
+  byId("export-png").addEventListener("click", () => exportPlot("png"));
+  byId("run-compare").addEventListener("click", runCompare);
+  byId("run-yield").addEventListener("click", runYield);
+  for (const id of ["y-low", "y-high"]) byId(id).addEventListener("change", () => { clearErrors(); drawResponse(); });
   byId("get-touchstone").addEventListener("click", () => download("touchstone"));
   byId("get-csv").addEventListener("click", () => download("csv"));
   window.addEventListener("resize", drawResponse);
+  await restoreKept();
   await design();
   if (linkProblems.length) showErrors(linkProblems);
 });
