@@ -2,6 +2,7 @@
 
 import os
 import shutil
+from pathlib import Path
 
 import httpx
 import pytest
@@ -234,7 +235,8 @@ def test_every_load_form_reaches_the_api(browser, server_url, tmp_path):
     assert "design band" in page.inner_text("#plot-note")  # the data end at 2.7 GHz
     page.fill("#measured", "1.7, 24, -9\n2.2; 27\n2.7, 31, 6")
     page.click("#design")
-    page.wait_for_function("document.querySelector('.field-error[data-for=\"measured\"]').textContent.includes('line 2')")
+    error = "document.querySelector('.field-error[data-for=\"measured\"]').textContent"
+    page.wait_for_function(f"{error}.includes('line 2')")
     # A one-port Touchstone file of our own, chosen from disk (S in RI form, 50 ohm reference).
     file = tmp_path / "feed-antenna.s1p"
     file.write_text("! demo load\n# GHz S RI R 50\n1.5 -0.30 0.20\n2.2 -0.22 0.24\n3.0 -0.15 0.28\n")
@@ -288,10 +290,10 @@ def test_compare_yield_and_plot_export(browser, server_url):
     with page.expect_download() as svg:
         page.click("#export-svg")
     assert svg.value.suggested_filename.endswith("-reflection.svg")
-    assert "<svg" in open(svg.value.path()).read()
+    assert "<svg" in Path(svg.value.path()).read_text()
     with page.expect_download() as png:
         page.click("#export-png")
-    assert open(png.value.path(), "rb").read(8) == b"\x89PNG\r\n\x1a\n"
+    assert Path(png.value.path()).read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
 
 
 def test_interactive_docs_work_without_the_internet(browser, server_url):
@@ -307,3 +309,16 @@ def test_interactive_docs_work_without_the_internet(browser, server_url):
     page.wait_for_selector(".swagger-ui .info .title", timeout=20000)
     assert "Stepline" in page.inner_text(".swagger-ui .info .title")
     assert outside == []
+
+
+def test_only_the_chosen_load_forms_fields_show(browser, server_url):
+    page = open_page(browser, server_url + "/")
+    visible = lambda ids: [i for i in ids if page.is_visible(f"#{i}")]  # noqa: E731
+    fields = ["load-r", "load-x", "circuit-r", "circuit-l", "circuit-c", "measured", "touchstone"]
+    assert visible(fields) == ["load-r", "load-x"]
+    page.select_option("#load-kind", "circuit")
+    assert visible(fields) == ["circuit-r", "circuit-l"]
+    page.select_option("#circuit-kind", "series-rc")
+    assert visible(fields) == ["circuit-r", "circuit-c"]
+    page.select_option("#load-kind", "measured")
+    assert visible(fields) == ["measured"]

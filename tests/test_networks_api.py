@@ -102,7 +102,8 @@ def test_a_physical_design_analyzed_over_a_band_of_the_same_centre_is_the_same_l
     sections = [{"impedance_ohm": s["impedance_ohm"], "length_m": s["length_m"]} for s in design["sections"]]
     wide = {"start_hz": 1.3e9, "stop_hz": 4.7e9}
     body = analyze(client, request | {"band": wide, "points": 341, "medium": microstrip, "sections": sections}).json()
-    assert [s["width_m"] for s in body["sections"]] == pytest.approx([s["width_m"] for s in design["sections"]], rel=1e-9)
+    widths = [s["width_m"] for s in design["sections"]]
+    assert [s["width_m"] for s in body["sections"]] == pytest.approx(widths, rel=1e-9)
     inside = body["response"]["reflection_magnitude"][70:271]
     assert inside == pytest.approx(design["response"]["reflection_magnitude"], rel=1e-6, abs=1e-9)
 

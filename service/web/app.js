@@ -619,8 +619,8 @@ function showRelevantFields() {
   show(".medium-coax", medium === "coax");
   const load = value("load-kind");
   for (const kind of ["fixed", "circuit", "measured", "touchstone"]) show(`.load-${kind}`, load === kind);
-  show(".circuit-l", value("circuit-kind").endsWith("l"));
-  show(".circuit-c", value("circuit-kind").endsWith("c"));
+  show(".circuit-l", load === "circuit" && value("circuit-kind").endsWith("l"));
+  show(".circuit-c", load === "circuit" && value("circuit-kind").endsWith("c"));
   const spec = NUMBER.test(value("spec")) ? Number(value("spec")) : null;
   byId("spec-hint").textContent = specHint(value("spec-form"), spec);
 }
