@@ -77,8 +77,8 @@ class ComplexReflection(DescribedModel):
     """The input reflection coefficient (complex, referred to the source impedance) at the response
     curve's frequencies: what a Smith chart draws."""
 
-    real: list[float]
-    imag: list[float]
+    real: list[float] = Field(description="Real part of the reflection coefficient at each frequency.")
+    imag: list[float] = Field(description="Imaginary part of the reflection coefficient at each frequency.")
 
 
 class BodeFanoFigures(DescribedModel):

@@ -85,6 +85,6 @@ class YieldResult(DescribedModel):
     worst_trial: WorstTrial
     clipped_draws: ClippedDraws
     percentiles: Percentiles
-    histogram: Histogram
+    histogram: Histogram = Field(description="The trials' worst in-band reflection, counted in even bins.")
     grid_points: int = Field(description="Frequencies over the band at which each trial is evaluated.")
     method: str = Field(description="How the yield was estimated, in words.")
