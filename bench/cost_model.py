@@ -160,6 +160,18 @@ def cases(quick: bool) -> list[tuple[str, Callable[[], tuple[float, Callable[[],
             lambda: _design(REACTIVE | {"method": "chebyshev", "sections": 4, "medium": MICROSTRIP}),
             True,
         ),
+        (
+            "chebyshev 4, microstrip, steps included",
+            lambda: _design(PLAIN | {"method": "chebyshev", "sections": 4, "medium": MICROSTRIP, "junction_effects": "include"}),
+            False,
+        ),
+        (
+            "chebyshev 4, microstrip, steps compensated",
+            lambda: _design(
+                PLAIN | {"method": "chebyshev", "sections": 4, "medium": MICROSTRIP, "junction_effects": "compensate"}
+            ),
+            False,
+        ),
         ("compare, resistive", lambda: _compare(PLAIN), False),
         (
             "compare, 1024-step tapers, 10001 points",

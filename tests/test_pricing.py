@@ -122,3 +122,9 @@ def test_costly_requests_are_refused_before_they_run():
     compare = BASE_REQUEST | {"taper_segments": 1024, "points": 10001, "medium": LOSSY}
     response = client.post("/v1/transformers/compare", json=compare)
     assert response.status_code == 422 and "would need about" in response.json()["problems"][0]["message"]
+
+
+def test_junction_steps_are_priced():
+    plain = STEPPED | {"medium": MICROSTRIP}
+    included = pricing.design_seconds(plain | {"junction_effects": "include"})
+    assert pricing.design_seconds(plain) < included < pricing.design_seconds(plain | {"junction_effects": "compensate"})

@@ -17,6 +17,7 @@ from service.analysis import network
 from service.constants import SPEED_OF_LIGHT_M_PER_S
 from service.physics.loads import FixedLoad, LoadModel
 from service.physics.media import Medium
+from service.physics.steps import StepElements, inductance_per_m_h, microstrip_step
 
 STACK_DESIGNS = 32  # designs per stacked cascade evaluation
 CHUNK_ELEMENTS = 1 << 18  # designs x frequencies x sections evaluated at once (bounds memory)
@@ -35,18 +36,48 @@ class LineCascade:
     medium: Medium
     geometry: np.ndarray
     lengths_m: np.ndarray
+    feed_geometry: float | None = None  # given: the junction steps (feed line to section 1, and between sections) count
+
+    @property
+    def with_steps(self) -> bool:
+        """Whether the junction discontinuities are part of this line's cascade."""
+        return self.feed_geometry is not None
 
     def abcd(self, frequency_hz: np.ndarray) -> network.Abcd:
         """The cascade's ABCD entries at each frequency, with the medium's dispersion and losses."""
         return network.Abcd(*self._by_frequency_chunks(frequency_hz, lambda f: astuple(self._abcd(f))))
 
     def _abcd(self, frequency_hz: np.ndarray) -> network.Abcd:
+        if self.with_steps:
+            return self._abcd_with_steps(frequency_hz)
         if not self.medium.lossy:
             return self._lossless_abcd(frequency_hz).complex()
         f = np.asarray(frequency_hz, dtype=float)[..., None]
         params = self.medium.parameters(self.geometry, f)
         losses = params.attenuation_np_per_m * self.lengths_m
         return network.cascade(params.impedance_ohm, f * self._phase_per_hz(params.eps_eff), losses)
+
+    def step_elements(self, frequency_hz: np.ndarray) -> StepElements:
+        """Each junction's step circuit (physics.steps) at each frequency (..., F, S): the first
+        between the source's feed line (of feed_geometry) and section 1."""
+        f = np.asarray(frequency_hz, dtype=float)[..., None]
+        params = self.medium.parameters(self.geometry, f)
+        feed = self.medium.parameters(np.asarray(self.feed_geometry), f)
+        per_m = inductance_per_m_h(params.impedance_ohm, params.eps_eff)
+        feed_per_m = inductance_per_m_h(feed.impedance_ohm, feed.eps_eff)
+        geometry = np.broadcast_to(self.geometry, per_m.shape)
+        left = np.concatenate((np.broadcast_to(self.feed_geometry, (*per_m.shape[:-1], 1)), geometry[..., :-1]), -1)
+        left_per_m = np.concatenate((np.broadcast_to(feed_per_m, (*per_m.shape[:-1], 1)), per_m[..., :-1]), -1)
+        return microstrip_step(left, geometry, left_per_m, per_m, self.medium.eps_r, self.medium.height_m)
+
+    def _abcd_with_steps(self, frequency_hz: np.ndarray) -> network.Abcd:
+        """The cascade with each junction's step circuit before its section."""
+        f = np.asarray(frequency_hz, dtype=float)[..., None]
+        params = self.medium.parameters(self.geometry, f)
+        losses = 0.0 if params.attenuation_np_per_m is None else params.attenuation_np_per_m * self.lengths_m
+        gamma_l = losses + 1j * f * self._phase_per_hz(params.eps_eff)
+        steps = self.step_elements(frequency_hz)
+        return network.cascade_with_junctions(params.impedance_ohm, gamma_l, steps, 2.0 * np.pi * f)
 
     def _lossless_abcd(self, frequency_hz: np.ndarray) -> network.LosslessAbcd:
         """The real ABCD parts at each frequency, for a medium without losses."""
@@ -97,7 +128,7 @@ class LineCascade:
         The insertion loss is -10 log10 of the power reaching the load over the power available
         from the source.
         """
-        if not with_losses or not self.medium.lossy:
+        if not with_losses or not (self.medium.lossy or self.with_steps):
             return self._by_frequency_chunks(frequency_hz, lambda f: (self._response(f, False)[0],))[0], None
         return self._by_frequency_chunks(frequency_hz, lambda f: self._response(f, True))
 
@@ -120,11 +151,11 @@ class LineCascade:
     def _arrays_per_section(self) -> bool:
         """Whether an evaluation builds frequency x section arrays: in a dispersive or lossy medium,
         or where the sections differ in electrical length (otherwise one row per section at a time)."""
-        return self.medium.dispersive or self.medium.lossy or self._common_phase.shape[-1] > 1
+        return self.medium.dispersive or self.medium.lossy or self.with_steps or self._common_phase.shape[-1] > 1
 
     def _response(self, frequency_hz: np.ndarray, with_losses: bool) -> tuple[np.ndarray, np.ndarray | None]:
         load = self.load.complex_ohm if isinstance(self.load, FixedLoad) else self.load.impedance_ohm(frequency_hz)
-        if not self.medium.lossy:
+        if not self.medium.lossy and not self.with_steps:
             return network.lossless_reflection(self._lossless_abcd(frequency_hz), load, self.source_ohm), None
         abcd = self._abcd(frequency_hz)
         magnitude = np.abs(network.reflection(network.input_impedance(abcd, load), self.source_ohm))
@@ -148,7 +179,7 @@ class LineCascade:
 
     def with_sections(self, geometry: np.ndarray, lengths_m: np.ndarray) -> LineCascade:
         """The same source, load and medium with other sections."""
-        return LineCascade(self.source_ohm, self.load, self.medium, geometry, lengths_m)
+        return LineCascade(self.source_ohm, self.load, self.medium, geometry, lengths_m, self.feed_geometry)
 
 
 def stack(lines: list[LineCascade]) -> LineCascade:
@@ -171,7 +202,7 @@ def stack(lines: list[LineCascade]) -> LineCascade:
 
 def stack_key(line: LineCascade) -> tuple | None:
     """Lines with equal keys can be stacked; None for lines that must be evaluated alone."""
-    if not isinstance(line.load, FixedLoad):
+    if not isinstance(line.load, FixedLoad) or line.with_steps:
         return None
     return line.geometry.size, line.medium
 

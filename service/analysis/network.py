@@ -7,6 +7,7 @@ are vectorized over frequency (and over any leading batch axes) by NumPy broadca
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import Protocol
 
 import numpy as np
 
@@ -51,17 +52,48 @@ def cascade(
     b = np.zeros(shape[:-1], dtype=complex)
     c = np.zeros(shape[:-1], dtype=complex)
     d = np.ones(shape[:-1], dtype=complex)
+    entries = (a, b, c, d)
     for index in range(shape[-1]):
-        z = impedances[..., index]
-        cos_t = cosines[..., index]
-        sin_t = sines[..., index]
-        a, b, c, d = (
-            a * cos_t + b * sin_t / z,
-            a * sin_t * z + b * cos_t,
-            c * cos_t + d * sin_t / z,
-            c * sin_t * z + d * cos_t,
-        )
+        entries = _times_line(entries, cosines[..., index], sines[..., index], impedances[..., index])
+    return Abcd(*entries)
+
+
+Entries = tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]
+
+
+def _times_line(entries: Entries, cos_t: np.ndarray, sin_t: np.ndarray, z: np.ndarray) -> Entries:
+    """[[a, b], [c, d]] times a line's [[cosh, Z sinh], [sinh / Z, cosh]]."""
+    a, b, c, d = entries
+    return a * cos_t + b * sin_t / z, a * sin_t * z + b * cos_t, c * cos_t + d * sin_t / z, c * sin_t * z + d * cos_t
+
+
+def cascade_with_junctions(
+    impedances_ohm: np.ndarray, gamma_l: np.ndarray, junctions: StepCircuit, omega: np.ndarray
+) -> Abcd:
+    """Product of lines (cosh, sinh of the complex gamma l) with a junction circuit before each:
+    series inductance, shunt capacitance, series inductance (arrays over (..., F, S) like the lines)."""
+    shape = np.broadcast_shapes(np.shape(impedances_ohm), np.shape(gamma_l))
+    z = np.broadcast_to(impedances_ohm, shape)
+    cosines, sines = np.cosh(np.broadcast_to(gamma_l, shape)), np.sinh(np.broadcast_to(gamma_l, shape))
+    w = np.broadcast_to(omega, shape)
+    left = 1j * w * np.broadcast_to(junctions.left_inductance_h, shape)
+    shunt = 1j * w * np.broadcast_to(junctions.capacitance_f, shape)
+    right = 1j * w * np.broadcast_to(junctions.right_inductance_h, shape)
+    a, b, c, d = (np.full(shape[:-1], value, dtype=complex) for value in (1.0, 0.0, 0.0, 1.0))
+    for index in range(shape[-1]):
+        b, d = a * left[..., index] + b, c * left[..., index] + d  # series [[1, Z], [0, 1]]
+        a, c = a + b * shunt[..., index], c + d * shunt[..., index]  # shunt [[1, 0], [Y, 1]]
+        b, d = a * right[..., index] + b, c * right[..., index] + d
+        a, b, c, d = _times_line((a, b, c, d), cosines[..., index], sines[..., index], z[..., index])
     return Abcd(a, b, c, d)
+
+
+class StepCircuit(Protocol):
+    """A junction's series-shunt-series circuit (physics.steps.StepElements has this shape)."""
+
+    left_inductance_h: np.ndarray
+    capacitance_f: np.ndarray
+    right_inductance_h: np.ndarray
 
 
 @dataclass(frozen=True)

@@ -193,7 +193,19 @@ def _stepped_seconds(item: dict[str, Any], stacked: bool) -> float:
     if refined(item):
         searched = SEARCHED_REFINEMENTS if spec_driven else 1.0
         seconds += searched * (DESIGN_S + one + refinement_seconds(item, line, line))
-    return seconds
+    return seconds + _junction_seconds(item, line, spec_driven)
+
+
+def _junction_seconds(item: dict[str, Any], sections: float, spec_driven: bool) -> float:
+    """Junction steps: checks on the complex path with the step circuits; compensation refines the lengths."""
+    mode = item.get("junction_effects")
+    if mode not in ("include", "compensate"):
+        return 0.0
+    lossy = item | {"medium": _dict(item.get("medium")) | {"loss_tangent": 1.0}}  # the complex-arithmetic path
+    one = check_seconds(lossy, sections, _total_angle(item, sections, False))
+    checks = (2.0 if mode == "compensate" else 1.0) * one
+    compensation = refinement_seconds(lossy, sections, sections) if mode == "compensate" else 0.0
+    return (checks + compensation) * (SPEC_PASSES if spec_driven else 1.0)
 
 
 def _taper_seconds(item: dict[str, Any]) -> float:

@@ -6,6 +6,7 @@ import numpy as np
 
 from service.analysis.section_tables import section_tables
 from service.analysis.worst_case import check
+from service.pipeline.junction_effects import junction_check
 from service.pipeline.messages import bode_fano_warnings, spec_warnings
 from service.pipeline.options import DesignOptions
 from service.pipeline.realize import realize
@@ -33,10 +34,16 @@ def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> An
         line = line.with_sections(line.geometry, np.where(given, physical, line.lengths_m))
     band = request.band
     verified, curve = check(line, band.start_hz, band.stop_hz, request.spec_reflection, request.points)
+    junctions, step_notes = None, ()
+    if request.junction_effects == "include":
+        stepped = junction_check(line, request, verified)
+        line, verified, curve, junctions = stepped.line, stepped.figures, stepped.curve, stepped.block
+        step_notes = stepped.notes
     table = section_tables([line], np.array([band.center_hz]))[0]
     blocks = checked_blocks(line, request, verified, curve, table, options)
-    warnings = [*blocks.medium_notes, *spec_warnings(verified)]
+    warnings = [*blocks.medium_notes, *step_notes, *spec_warnings(verified)]
     warnings += bode_fano_warnings(blocks.bode_fano, request.spec_reflection)
     reflection = line.input_reflection(np.asarray(curve.frequency_hz))
     complex_curve = ComplexReflection(real=reflection.real.tolist(), imag=reflection.imag.tolist())
-    return AnalysisResult(**blocks.fields, input_reflection=complex_curve, warnings=warnings)
+    fields = blocks.fields | {"input_reflection": complex_curve, "junction_effects": junctions}
+    return AnalysisResult(**fields, warnings=warnings)

@@ -110,19 +110,21 @@ def refine_minimax(
     start_hz: float,
     stop_hz: float,
     quarter_wave_m: float,
-    geometry_bounds: tuple[float, float],
+    geometry_bounds: tuple[float | np.ndarray, float | np.ndarray],
     free: np.ndarray | None = None,
 ) -> Refinement:
     """Adjust the free sections' geometry (hence impedance) and lengths for the smallest worst-case
-    reflection, each geometry within geometry_bounds.
+    reflection, each geometry within geometry_bounds (one pair for all, or one per free section:
+    equal bounds hold a geometry fixed, so that only lengths move).
 
     The result is never worse, on the dense check, than the start held within the bounds; the
     whole search takes at most MAX_SECONDS.
     """
     free = np.arange(line.geometry.size) if free is None else np.asarray(free)
     problem = _Problem(line, np.linspace(start_hz, stop_hz, GRID_POINTS), quarter_wave_m, free)
-    log_low, log_high = np.log(geometry_bounds[0]), np.log(geometry_bounds[1])
-    bounds = [(log_low, log_high)] * free.size + [(0.0, MAX_LENGTH_FACTOR)] * free.size
+    log_low = np.broadcast_to(np.log(geometry_bounds[0]), free.shape)
+    log_high = np.broadcast_to(np.log(geometry_bounds[1]), free.shape)
+    bounds = [*zip(log_low.tolist(), log_high.tolist(), strict=True)] + [(0.0, MAX_LENGTH_FACTOR)] * free.size
     theory = np.concatenate(
         (np.clip(np.log(line.geometry[free]), log_low, log_high), line.lengths_m[free] / quarter_wave_m)
     )

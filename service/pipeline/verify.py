@@ -16,6 +16,7 @@ from service.analysis.section_tables import SectionTable, section_tables
 from service.analysis.worst_case import check_many
 from service.constants import SMALL_REFLECTION
 from service.errors import UnmeetableRequestError
+from service.pipeline.junction_effects import junction_check
 from service.pipeline.messages import (
     bode_fano_warnings,
     coverage_warnings,
@@ -32,6 +33,7 @@ from service.pipeline.shared_blocks import checked_blocks
 from service.pipeline.target import Target
 from service.schemas.bulk import DesignSummary
 from service.schemas.results import (
+    JunctionEffects,
     PredictedFigures,
     RefinementFigures,
     ResponseCurve,
@@ -126,7 +128,12 @@ def _verify_lines(
             refined = refined_check(line, pending.request, pending.target, pending.theory, taper, figures, options)
             line, refinement, curve, notes = refined.line, refined.refinement, refined.curve, refined.notes
             figures = refinement.after
-        checked.append((replace(pending, notes=pending.notes + notes), line, figures, refinement, curve))
+        junctions = None
+        if pending.request.junction_effects != "ignore":
+            stepped = junction_check(line, pending.request, figures)
+            line, figures, curve, junctions = stepped.line, stepped.figures, stepped.curve, stepped.block
+            notes = (*notes, *stepped.notes)
+        checked.append((replace(pending, notes=pending.notes + notes), line, figures, refinement, curve, junctions))
     centers = np.array([j.request.band.center_hz for j in queue])
     tables = section_tables([line for _, line, *_ in checked], centers, junctions=not summaries)
     return [_assemble(*parts, table, options, summaries) for parts, table in zip(checked, tables, strict=True)]
@@ -138,6 +145,7 @@ def _assemble(
     verified: VerifiedFigures,
     refinement: RefinementFigures | None,
     curve: ResponseCurve | None,
+    junctions: JunctionEffects | None,
     table: SectionTable,
     options: DesignOptions,
     summary: bool,
@@ -172,6 +180,7 @@ def _assemble(
     warnings += plausibility_warnings(band.stop_hz, float(line.lengths_m.sum()))
     fields = {"method": pending.method, "theory": theory, "predicted": predicted, "refinement": refinement}
     fields["rotating_section"] = target.rotation is not None
+    fields["junction_effects"] = junctions
     fields |= blocks.fields | {"warnings": warnings}
     return DesignSummary.picked(fields, include_curve=False) if summary else TransformerDesign(**fields)
 

@@ -42,3 +42,9 @@ class AnalyzeRequest(MatchRequest):
     """Check a list of sections, source side first, between the source and the load."""
 
     sections: Annotated[list[SectionSpec], Field(min_length=1, max_length=MAX_ANALYZED_SECTIONS)]
+
+    @model_validator(mode="after")
+    def _checked_as_given(self) -> AnalyzeRequest:
+        if self.junction_effects == "compensate":
+            raise ValueError("an analysis checks the sections as given: junction_effects may be ignore or include")
+        return self

@@ -73,6 +73,30 @@ class ResponseCurve(DescribedModel):
     )
 
 
+class StepCircuitResult(DescribedModel):
+    """One junction's step circuit: series inductance, shunt capacitance, series inductance."""
+
+    source_side_inductance_h: float = Field(description="Series inductance on the source side of the step.")
+    capacitance_f: float = Field(description="Shunt capacitance at the step.")
+    load_side_inductance_h: float = Field(description="Series inductance on the load side of the step.")
+
+
+class JunctionEffects(DescribedModel):
+    """The step discontinuities' effect: the verified figures include them; these say by how much."""
+
+    mode: str = Field(description="`include` or `compensate`, as asked.")
+    model: str = Field(description="The published step model used.")
+    ideal_max_reflection: float = Field(description="Worst in-band |reflection| of the same sections with ideal steps.")
+    with_steps_max_reflection: float = Field(description="Worst in-band |reflection| with the steps (as verified).")
+    uncompensated_max_reflection: float | None = Field(
+        None, description="With `compensate`: the worst |reflection| with steps before the lengths were adjusted."
+    )
+    length_changes_m: list[float] | None = Field(
+        None, description="With `compensate`: each section's length change (compensated minus ideal), source first."
+    )
+    steps: list[StepCircuitResult] = Field(description="Each junction, the feed line's first, at the band centre.")
+
+
 class ComplexReflection(DescribedModel):
     """The input reflection coefficient (complex, referred to the source impedance) at the response
     curve's frequencies: what a Smith chart draws."""
@@ -108,6 +132,9 @@ class AnalysisResult(DescribedModel):
     junctions: list[JunctionResult]
     verified: VerifiedFigures
     response: ResponseCurve
+    junction_effects: JunctionEffects | None = Field(
+        None, description="Given when the request includes or compensates the junction steps."
+    )
     input_reflection: ComplexReflection | None = Field(
         None, description="Complex input reflection at the curve's frequencies (given by the analyze endpoint)."
     )

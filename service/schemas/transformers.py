@@ -47,11 +47,22 @@ class MatchRequest(StrictModel):
     medium: MediumSpec | None = Field(
         None, description="The line the sections are built in; the ideal line of `velocity_factor` by default."
     )
+    junction_effects: Literal["ignore", "include", "compensate"] = Field(
+        "ignore",
+        description="The step discontinuities at the junctions (feed line to section 1, and between sections), "
+        "microstrip only: `ignore` them (ideal steps), `include` them in the exact check, or `compensate` them "
+        "(section lengths adjusted so that the design with its steps meets the spec).",
+    )
 
     @model_validator(mode="after")
     def _consistent(self) -> MatchRequest:
         if self.medium is not None and "velocity_factor" in self.model_fields_set:
             raise ValueError("give velocity_factor at the top level or a medium, not both")
+        if self.junction_effects != "ignore" and getattr(self.medium, "kind", None) != "microstrip":
+            raise ValueError(
+                "junction_effects needs a microstrip medium: step models for stripline, coax and the ideal "
+                "line are not available yet"
+            )
         given = [name for name in SPEC_FIELDS if getattr(self, name) is not None]
         if len(given) > 1:
             raise ValueError(f"give the spec once, as one of {', '.join(SPEC_FIELDS)}; got {' and '.join(given)}")
