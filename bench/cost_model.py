@@ -162,7 +162,9 @@ def cases(quick: bool) -> list[tuple[str, Callable[[], tuple[float, Callable[[],
         ),
         (
             "chebyshev 4, microstrip, steps included",
-            lambda: _design(PLAIN | {"method": "chebyshev", "sections": 4, "medium": MICROSTRIP, "junction_effects": "include"}),
+            lambda: _design(
+                PLAIN | {"method": "chebyshev", "sections": 4, "medium": MICROSTRIP, "junction_effects": "include"}
+            ),
             False,
         ),
         (

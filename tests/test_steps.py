@@ -56,7 +56,9 @@ def test_the_cascade_with_steps_equals_scikit_rf_with_lumped_elements():
     f = frequency.f
     impedances = np.array([42.0, 31.0, 24.0])
     lengths = np.array([0.012, 0.015, 0.009])
-    steps = StepElements(np.array([3e-11, 5e-11, 2e-11]), np.array([1e-13, 2.5e-13, 4e-13]), np.array([4e-11, 1e-11, 6e-11]))
+    steps = StepElements(
+        np.array([3e-11, 5e-11, 2e-11]), np.array([1e-13, 2.5e-13, 4e-13]), np.array([4e-11, 1e-11, 6e-11])
+    )
     beta = 2 * np.pi * f / C0
     ours = network.cascade_with_junctions(
         impedances[None, :], 1j * beta[:, None] * lengths, steps, 2 * np.pi * f[:, None]
