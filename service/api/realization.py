@@ -1,5 +1,7 @@
-"""Drawings and tolerance yield of realized designs."""
+"""Drawings, layout files and tolerance yield of realized designs."""
 
+import io
+import zipfile
 from typing import Annotated
 
 from fastapi import APIRouter, Body, Request
@@ -16,10 +18,21 @@ from service.pipeline.items import Item
 from service.pipeline.options import DesignOptions
 from service.pipeline.wording import count_text
 from service.schemas.items import DesignItem
+from service.schemas.layouts import LayoutRequest
 from service.schemas.tolerance import YieldRequest, YieldResult
 from service.settings import Settings
 
 SVG_TYPE = "image/svg+xml"
+ZIP_TYPE = "application/zip"
+
+
+def layout_zip(request: LayoutRequest, options: DesignOptions) -> bytes:
+    """The layout files in one zip archive (module level, so a worker process can run it)."""
+    archive = io.BytesIO()
+    with zipfile.ZipFile(archive, "w", zipfile.ZIP_DEFLATED) as bundle:
+        for name, text in pipeline.layout_files(request, options).items():
+            bundle.writestr(name, text)
+    return archive.getvalue()
 
 
 def drawing_svg(item: Item, options: DesignOptions) -> str:
@@ -48,6 +61,28 @@ def build_router(settings: Settings) -> APIRouter:
         seconds = admit_design(item.model_dump(), settings)
         svg = await run_sized(drawing_svg, (item, options), seconds, settings.deadline_s, http)
         return Response(svg, media_type=SVG_TYPE)
+
+    layout_examples = request_examples(settings.examples_dir, "layouts")
+
+    @router.post(
+        "/layouts",
+        summary="Layout files (Gerber X2) of a planar design",
+        response_class=Response,
+        responses={
+            200: {
+                "content": {ZIP_TYPE: {"schema": {"type": "string", "format": "binary"}}},
+                "description": "A zip of the copper layer and the board profile, Gerber X2, millimetres.",
+            }
+        },
+    )
+    async def layout(
+        request: Annotated[LayoutRequest, Body(openapi_examples=layout_examples)], http: Request
+    ) -> Response:
+        """Design (microstrip or stripline); lay out its copper with a feed line at each end, and the board outline."""
+        seconds = admit_design(request.design.model_dump(), settings)
+        archive = await run_sized(layout_zip, (request, options), seconds, settings.deadline_s, http)
+        name = f"stepline-{request.design.method}-layout.zip"
+        return Response(archive, media_type=ZIP_TYPE, headers={"content-disposition": f'attachment; filename="{name}"'})
 
     @router.post("/yield", response_model=YieldResult, summary="Monte Carlo yield under tolerances")
     async def tolerance_yield(
