@@ -1,6 +1,7 @@
 """POST /v1/layouts: Gerber X2 files read back by gerbonara (a general-purpose Gerber library)."""
 
 import io
+import itertools
 import json
 import zipfile
 from pathlib import Path
@@ -70,7 +71,7 @@ def test_every_width_and_length_reads_back_to_one_micron(client, name, body):
         assert x1 - x0 == pytest.approx(section["length_m"] * 1e3, abs=1e-3)
         assert y1 - y0 == pytest.approx(section["width_m"] * 1e3, abs=1e-3)
         assert y0 == pytest.approx(-y1, abs=1e-6)  # centred on the line's axis
-    for left, right in zip(boxes, boxes[1:], strict=False):
+    for left, right in itertools.pairwise(boxes):
         assert right[0] == pytest.approx(left[1], abs=1e-6)  # each strip starts where the last ends
     assert "%TF.FileFunction,Copper," in copper and "%TA.AperFunction,Conductor*%" in copper
     assert "%TF.FileFunction,Profile,NP*%" in profile and "%MOMM*%" in copper and "%MOMM*%" in profile
