@@ -114,3 +114,38 @@ def test_measured_data_are_never_extrapolated_by_the_analysis(client, base_reque
     refused = analyze(client, body)  # the band is 1-3 GHz, the data 1.2-2.8 GHz
     assert refused.status_code == 422 and refused.json()["problems"][0]["field"] == "band"
     assert analyze(client, body | {"band": {"start_hz": 1.2e9, "stop_hz": 2.8e9}}).status_code == 200
+
+
+MEDIA_BY_DIMENSION = [
+    ({"kind": "microstrip", "eps_r": 3.66, "height_m": 0.508e-3, "thickness_m": 35e-6}, "width_m"),
+    ({"kind": "stripline", "eps_r": 2.2, "ground_spacing_m": 1.6e-3, "thickness_m": 17e-6}, "width_m"),
+    ({"kind": "coax", "eps_r": 2.1, "outer_diameter_m": 7e-3}, "inner_diameter_m"),
+]
+
+
+@pytest.mark.parametrize("medium, dimension", MEDIA_BY_DIMENSION, ids=[m["kind"] for m, _ in MEDIA_BY_DIMENSION])
+def test_analysis_by_dimensions_equals_analysis_by_impedance(client, base_request, medium, dimension):
+    by_impedance = [
+        {"impedance_ohm": 61.0, "electrical_length_deg": 90},
+        {"impedance_ohm": 78.0, "length_m": 0.021},
+        {"impedance_ohm": 90.0, "electrical_length_deg": 80, "reference_hz": 1.5e9},
+    ]
+    first = analyze(client, base_request | {"medium": medium, "sections": by_impedance}).json()
+    by_size = [
+        {k: v for k, v in given.items() if k != "impedance_ohm"} | {dimension: realized[dimension]}
+        for given, realized in zip(by_impedance, first["sections"], strict=True)
+    ]
+    second = analyze(client, base_request | {"medium": medium, "sections": by_size}).json()
+    assert second["verified"]["max_reflection"] == pytest.approx(first["verified"]["max_reflection"], rel=1e-9)
+    assert second["response"]["reflection_magnitude"] == pytest.approx(
+        first["response"]["reflection_magnitude"], rel=1e-9, abs=1e-12
+    )
+    assert [s["length_m"] for s in second["sections"]] == pytest.approx([s["length_m"] for s in first["sections"]])
+
+
+def test_a_dimension_must_fit_the_medium(client, base_request):
+    sections = [{"width_m": 1e-3, "electrical_length_deg": 90}]
+    refused = analyze(client, base_request | {"sections": sections})
+    assert refused.status_code == 422 and "microstrip or stripline" in refused.json()["problems"][0]["message"]
+    both = [{"width_m": 1e-3, "impedance_ohm": 50, "electrical_length_deg": 90}]
+    assert analyze(client, base_request | {"sections": both}).status_code == 422

@@ -9,11 +9,20 @@ from service.analysis.worst_case import check
 from service.pipeline.junction_effects import junction_check
 from service.pipeline.messages import bode_fano_warnings, spec_warnings
 from service.pipeline.options import DesignOptions
-from service.pipeline.realize import realize
+from service.pipeline.realize import geometry_for, realize_geometry
 from service.pipeline.shared_blocks import checked_blocks
 from service.pipeline.target import covered_load
 from service.schemas.networks import AnalyzeRequest
 from service.schemas.results import AnalysisResult, ComplexReflection
+
+
+def _geometry(request: AnalyzeRequest) -> np.ndarray:
+    """Each section's geometry: as given (width, inner diameter), or realized from its impedance."""
+    by_impedance = [s.impedance_ohm for s in request.sections if s.impedance_ohm is not None]
+    realized = iter(geometry_for(request, np.array(by_impedance)) if by_impedance else [])
+    return np.array(
+        [next(realized) if s.impedance_ohm is not None else s.width_m or s.inner_diameter_m for s in request.sections]
+    )
 
 
 def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> AnalysisResult:
@@ -24,10 +33,9 @@ def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> An
     """
     options = options or DesignOptions()
     center = request.band.center_hz
-    impedances = np.array([s.impedance_ohm for s in request.sections])
     angles = np.array([np.deg2rad(s.electrical_length_deg or 0.0) for s in request.sections])
     references = np.array([s.reference_hz or center for s in request.sections])
-    line = realize(request, covered_load(request), impedances, angles, references)
+    line = realize_geometry(request, covered_load(request), _geometry(request), angles, references)
     given = np.array([s.length_m is not None for s in request.sections])
     if np.any(given):
         physical = np.array([s.length_m or 0.0 for s in request.sections])

@@ -34,8 +34,19 @@ def realize(
     The geometry is found for the impedance at the band centre; each length makes the section's
     electrical length right at its frequency, with the medium's effective permittivity there.
     """
+    return realize_geometry(request, load, geometry_for(request, impedances_ohm), angles_rad, frequency_hz)
+
+
+def realize_geometry(
+    request: MatchRequest,
+    load: LoadModel,
+    geometry: np.ndarray,
+    angles_rad: np.ndarray,
+    frequency_hz: float | np.ndarray,
+) -> LineCascade:
+    """Sections of these geometries (widths, diameters; impedances on the ideal line) whose lengths
+    give these electrical lengths, each at its frequency."""
     medium = medium_model(request)
-    geometry = geometry_for(request, impedances_ohm)
     frequencies = np.asarray(frequency_hz, dtype=float) * np.ones(np.shape(geometry))
     eps = medium.parameters(geometry, frequencies).eps_eff  # each section at its own frequency
     lengths = np.asarray(angles_rad) * SPEED_OF_LIGHT_M_PER_S / (2.0 * np.pi * frequencies * np.sqrt(eps))
