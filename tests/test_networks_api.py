@@ -149,3 +149,50 @@ def test_a_dimension_must_fit_the_medium(client, base_request):
     assert refused.status_code == 422 and "microstrip or stripline" in refused.json()["problems"][0]["message"]
     both = [{"width_m": 1e-3, "impedance_ohm": 50, "electrical_length_deg": 90}]
     assert analyze(client, base_request | {"sections": both}).status_code == 422
+
+
+def test_peak_voltage_on_a_matched_line_is_that_of_the_incident_wave(client, base_request):
+    # A line of the source impedance into a matched load carries no standing wave: |V| = sqrt(2 P Z0)
+    # everywhere (definition of the incident power P = |V+|^2 / (2 Z0)).
+    body = base_request | {"load": {"resistance_ohm": 50.0}, "input_power_w": 100.0}
+    body["sections"] = [
+        {"impedance_ohm": 50.0, "length_m": 0.037},
+        {"impedance_ohm": 50.0, "electrical_length_deg": 120},
+    ]
+    power = analyze(client, body).json()["power"]
+    expected = math.sqrt(2 * 100.0 * 50.0)
+    assert power["incident_peak_voltage_v"] == pytest.approx(expected, rel=1e-12)
+    for section in power["sections"]:
+        assert section["peak_voltage_v"] == pytest.approx(expected, rel=1e-9)
+        assert section["peak_current_a"] == pytest.approx(expected / 50.0, rel=1e-9)
+    assert "licensed" in power["cautions"]
+
+
+@pytest.mark.parametrize("load_ohm", [12.0, 30.0, 75.0, 200.0])
+def test_peak_voltage_on_a_mismatched_line_lies_within_the_standing_wave_bounds(client, base_request, load_ohm):
+    body = base_request | {"load": {"resistance_ohm": load_ohm}, "input_power_w": 10.0}
+    body["sections"] = [{"impedance_ohm": 50.0, "electrical_length_deg": 150}]
+    result = analyze(client, body).json()
+    incident = math.sqrt(2 * 10.0 * 50.0)
+    reflection = abs(load_ohm - 50.0) / (load_ohm + 50.0)
+    peak = result["power"]["sections"][0]["peak_voltage_v"]
+    assert (1 - reflection) * incident * (1 - 1e-9) <= peak <= (1 + reflection) * incident * (1 + 1e-9)
+    # 150 degrees at the band centre spans a voltage maximum: the peak is the standing wave's top
+    assert peak == pytest.approx((1 + reflection) * incident, rel=1e-3)
+
+
+def test_coax_field_margin_against_the_default_ptfe_strength(client, base_request):
+    coax = {"kind": "coax", "eps_r": 2.1, "outer_diameter_m": 7e-3}
+    body = base_request | {"medium": coax, "input_power_w": 5e4, "load": {"resistance_ohm": 50.0}}
+    body["sections"] = [{"impedance_ohm": 50.0, "electrical_length_deg": 90}]
+    result = analyze(client, body).json()
+    section, inner = result["power"]["sections"][0], result["sections"][0]["inner_diameter_m"] / 2
+    # E at the inner conductor of a coax line: V / (a ln(b/a)) (electrostatics of coaxial cylinders)
+    expected = section["peak_voltage_v"] / (inner * math.log(3.5e-3 / inner))
+    assert section["peak_field_v_per_m"] == pytest.approx(expected, rel=1e-12)
+    assert result["power"]["dielectric_strength_v_per_m"] == 6e7
+    assert section["field_margin"] == pytest.approx(6e7 / expected, rel=1e-12)
+    small = body | {"medium": coax | {"outer_diameter_m": 2e-3}, "input_power_w": 5e6}
+    thin = client.post("/v1/networks/analyze", json=small).json()
+    assert thin["power"]["sections"][0]["field_margin"] < 2
+    assert any("breakdown" in w for w in thin["warnings"])

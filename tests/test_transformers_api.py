@@ -168,3 +168,19 @@ def test_unmeetable_spec_names_max_reflection(client, base_request):
     response = client.post("/v1/transformers/binomial", json=body)
     assert response.status_code == 422
     assert response.json()["problems"][0]["field"] == "max_reflection"
+
+
+def test_a_design_at_power_reports_the_narrowest_strip_current_density(client, base_request):
+    microstrip = {"kind": "microstrip", "eps_r": 3.66, "height_m": 0.508e-3, "thickness_m": 35e-6}
+    body = base_request | {"sections": 3, "medium": microstrip, "input_power_w": 20.0}
+    design = client.post("/v1/transformers/chebyshev", json=body).json()
+    power = design["power"]
+    assert len(power["sections"]) == 3 and power["input_power_w"] == 20.0
+    narrowest = min(range(3), key=lambda k: design["sections"][k]["width_m"])
+    cross_section = design["sections"][narrowest]["width_m"] * 35e-6
+    expected = power["sections"][narrowest]["peak_current_a"] / cross_section
+    assert power["narrowest_current_density_a_per_m2"] == pytest.approx(expected, rel=1e-12)
+    assert any("power.cautions" in w for w in design["warnings"])
+    assert "power" not in client.post("/v1/transformers/chebyshev", json=base_request).json() or (
+        client.post("/v1/transformers/chebyshev", json=base_request).json()["power"] is None
+    )

@@ -24,6 +24,7 @@ import math
 from collections.abc import Callable
 from typing import Any
 
+from service.analysis.standing_waves import SAMPLES_PER_SECTION
 from service.analysis.worst_case import CHECK_POINTS_PER_LOBE, MAX_CHECK_POINTS, MIN_CHECK_POINTS, PEAKS_REFINED
 from service.analysis.worst_case import REFINE_POINTS as PEAK_POINTS
 from service.constants import (
@@ -35,6 +36,7 @@ from service.constants import (
     YIELD_GRID_POINTS,
 )
 from service.pipeline.compare import compare_items
+from service.pipeline.power import POWER_POINTS
 from service.pipeline.refine import MAX_SECONDS as REFINE_LIMIT_S
 from service.pipeline.sweeps import grid_point, sweep_slice_size
 from service.schemas.bulk import SweepRequest
@@ -218,11 +220,20 @@ def _taper_seconds(item: dict[str, Any]) -> float:
     return one * (TAPER_SPEC_PASSES if by_spec else 1.0)
 
 
+def power_seconds(item: dict[str, Any], sections: float) -> float:
+    """The standing waves along every section at the power frequencies, where power is asked for."""
+    if item.get("input_power_w") is None:
+        return 0.0
+    return sections * POWER_POINTS * SAMPLES_PER_SECTION * PER_SECTION_POINT_S["lossy"]
+
+
 def design_seconds(item: dict[str, Any], stacked: bool = False) -> float:
     """Estimated compute of one design (`stacked`: as a stepped item of a batch or sweep)."""
     if item.get("method") == "taper" or "profile" in item:
-        return _taper_seconds(item)
-    return _stepped_seconds(item, stacked)
+        segments = _number(item.get("segments"), DEFAULT_SEGMENTS, MAX_SEGMENTS)
+        return _taper_seconds(item) + power_seconds(item, segments)
+    sections = _number(item.get("sections"), GUESSED_SECTIONS, MAX_SECTIONS)
+    return _stepped_seconds(item, stacked) + power_seconds(item, sections)
 
 
 def compare_seconds(request: CompareRequest) -> float:
@@ -243,7 +254,7 @@ def analyze_seconds(request: AnalyzeRequest) -> float:
     )
     count = float(len(request.sections))
     total = angle * request.band.stop_hz / centre
-    return DESIGN_S + check_seconds(item, count, total) + _geometry_s(item) * count
+    return DESIGN_S + check_seconds(item, count, total) + _geometry_s(item) * count + power_seconds(item, count)
 
 
 def yield_seconds(request: YieldRequest) -> float:

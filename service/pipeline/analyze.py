@@ -9,6 +9,7 @@ from service.analysis.worst_case import check
 from service.pipeline.junction_effects import junction_check
 from service.pipeline.messages import bode_fano_warnings, spec_warnings
 from service.pipeline.options import DesignOptions
+from service.pipeline.power import power_figures
 from service.pipeline.realize import geometry_for, realize_geometry
 from service.pipeline.shared_blocks import checked_blocks
 from service.pipeline.target import covered_load
@@ -54,4 +55,7 @@ def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> An
     reflection = line.input_reflection(np.asarray(curve.frequency_hz))
     complex_curve = ComplexReflection(real=reflection.real.tolist(), imag=reflection.imag.tolist())
     fields = blocks.fields | {"input_reflection": complex_curve, "junction_effects": junctions}
+    if request.input_power_w is not None:
+        fields["power"], power_notes = power_figures(request, line)
+        warnings += power_notes
     return AnalysisResult(**fields, warnings=warnings)

@@ -27,13 +27,13 @@ from service.pipeline.messages import (
     unmatched_warnings,
 )
 from service.pipeline.options import DesignOptions
+from service.pipeline.power import power_figures
 from service.pipeline.realize import line_for
 from service.pipeline.refined_check import limit_refusal, needs_refinement, refined_check
 from service.pipeline.shared_blocks import checked_blocks
 from service.pipeline.target import Target
 from service.schemas.bulk import DesignSummary
 from service.schemas.results import (
-    JunctionEffects,
     PredictedFigures,
     RefinementFigures,
     ResponseCurve,
@@ -128,12 +128,16 @@ def _verify_lines(
             refined = refined_check(line, pending.request, pending.target, pending.theory, taper, figures, options)
             line, refinement, curve, notes = refined.line, refined.refinement, refined.curve, refined.notes
             figures = refinement.after
-        junctions = None
+        extras: dict[str, object] = {}
         if pending.request.junction_effects != "ignore":
             stepped = junction_check(line, pending.request, figures)
-            line, figures, curve, junctions = stepped.line, stepped.figures, stepped.curve, stepped.block
+            line, figures, curve = stepped.line, stepped.figures, stepped.curve
+            extras["junction_effects"] = stepped.block
             notes = (*notes, *stepped.notes)
-        checked.append((replace(pending, notes=pending.notes + notes), line, figures, refinement, curve, junctions))
+        if pending.request.input_power_w is not None:
+            extras["power"], power_notes = power_figures(pending.request, line)
+            notes = (*notes, *power_notes)
+        checked.append((replace(pending, notes=pending.notes + notes), line, figures, refinement, curve, extras))
     centers = np.array([j.request.band.center_hz for j in queue])
     tables = section_tables([line for _, line, *_ in checked], centers, junctions=not summaries)
     return [_assemble(*parts, table, options, summaries) for parts, table in zip(checked, tables, strict=True)]
@@ -145,7 +149,7 @@ def _assemble(
     verified: VerifiedFigures,
     refinement: RefinementFigures | None,
     curve: ResponseCurve | None,
-    junctions: JunctionEffects | None,
+    extras: dict[str, object],
     table: SectionTable,
     options: DesignOptions,
     summary: bool,
@@ -180,7 +184,7 @@ def _assemble(
     warnings += plausibility_warnings(band.stop_hz, float(line.lengths_m.sum()))
     fields = {"method": pending.method, "theory": theory, "predicted": predicted, "refinement": refinement}
     fields["rotating_section"] = target.rotation is not None
-    fields["junction_effects"] = junctions
+    fields |= extras  # junction_effects and power, where the request asks for them
     fields |= blocks.fields | {"warnings": warnings}
     return DesignSummary.picked(fields, include_curve=False) if summary else TransformerDesign(**fields)
 

@@ -97,6 +97,34 @@ class JunctionEffects(DescribedModel):
     steps: list[StepCircuitResult] = Field(description="Each junction, the feed line's first, at the band centre.")
 
 
+class SectionPower(DescribedModel):
+    """What one section carries at the requested power, at its worst frequency in the band."""
+
+    peak_voltage_v: float = Field(description="Largest |V| anywhere along the section, standing wave included.")
+    peak_current_a: float = Field(description="Largest |I| anywhere along the section.")
+    peak_field_v_per_m: float | None = Field(
+        None, description="Coax: the field at the inner conductor's surface, V / (a ln(b/a)), at the peak voltage."
+    )
+    field_margin: float | None = Field(
+        None, description="Coax: dielectric strength over that field (1 is breakdown; below 2 is warned)."
+    )
+
+
+class PowerFigures(DescribedModel):
+    """Peak voltages and currents at the requested power, on the exact cascade over the band."""
+
+    input_power_w: float = Field(description="Incident power from a source matched to the source impedance.")
+    incident_peak_voltage_v: float = Field(description="The incident wave's peak voltage, sqrt(2 P Z0).")
+    sections: list[SectionPower] = Field(description="Each section, source side first.")
+    dielectric_strength_v_per_m: float | None = Field(
+        None, description="Coax: the breakdown field the margins are taken against."
+    )
+    narrowest_current_density_a_per_m2: float | None = Field(
+        None, description="Microstrip and stripline: peak current over the narrowest strip's cross-section (W t)."
+    )
+    cautions: str = Field(description="What these figures leave out, and whom to ask.")
+
+
 class ComplexReflection(DescribedModel):
     """The input reflection coefficient (complex, referred to the source impedance) at the response
     curve's frequencies: what a Smith chart draws."""
@@ -132,6 +160,7 @@ class AnalysisResult(DescribedModel):
     junctions: list[JunctionResult]
     verified: VerifiedFigures
     response: ResponseCurve
+    power: PowerFigures | None = Field(None, description="Given when the request states `input_power_w`.")
     junction_effects: JunctionEffects | None = Field(
         None, description="Given when the request includes or compensates the junction steps."
     )

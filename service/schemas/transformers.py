@@ -54,6 +54,20 @@ class MatchRequest(StrictModel):
         "(section lengths adjusted so that the design with its steps meets the spec).",
     )
 
+    input_power_w: float | None = Field(
+        None,
+        gt=0.0,
+        le=1e7,
+        description="Incident RF power from a source matched to `source_ohm`, in watts: the response then gives "
+        "each section's peak voltage and current over the band (and the coax field or the strip current density).",
+    )
+    dielectric_strength_v_per_m: float | None = Field(
+        None,
+        gt=0.0,
+        le=1e10,
+        description="Breakdown field of the coax dielectric, V/m; by default 3 MV/m for air and 60 MV/m for PTFE.",
+    )
+
     @model_validator(mode="after")
     def _consistent(self) -> MatchRequest:
         if self.medium is not None and "velocity_factor" in self.model_fields_set:
