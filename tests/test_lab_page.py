@@ -322,3 +322,17 @@ def test_only_the_chosen_load_forms_fields_show(browser, server_url):
     assert visible(fields) == ["circuit-r", "circuit-c"]
     page.select_option("#load-kind", "measured")
     assert visible(fields) == ["measured"]
+
+
+def test_a_microstrip_design_goes_to_gerber_with_steps_compensated_and_power(browser, server_url):
+    page = open_page(browser, server_url + "/?medium=microstrip&method=chebyshev&sections=3&junctions=compensate&power=25")
+    assert page.is_visible("#junctions") and page.is_visible("#get-gerber")
+    assert "junction steps are in the verified figures" in page.inner_text("#warnings")
+    assert "Largest peak voltage" in page.inner_text("#power-figures")
+    assert "licensed" in page.inner_text("#power-cautions")
+    with page.expect_download() as layout:
+        page.click("#get-gerber")
+    assert layout.value.suggested_filename.endswith("-gerber.zip")
+    assert Path(layout.value.path()).read_bytes()[:2] == b"PK"
+    page.select_option("#medium", "coax")
+    assert not page.is_visible("#junctions") and not page.is_visible("#get-gerber")

@@ -3,7 +3,7 @@
 
 const FORM_IDS = ["source", "load-kind", "load-r", "load-x", "circuit-kind", "circuit-r", "circuit-l", "circuit-c", "measured",
   "start", "stop", "spec-form", "spec", "method", "theory", "sections", "profile", "segments", "medium", "vf", "eps-r",
-  "height", "thickness", "outer", "tan-d", "sigma", "rough", "y-low", "y-high"];
+  "height", "thickness", "outer", "tan-d", "sigma", "rough", "junctions", "power", "y-low", "y-high"];
 const FIELD_INPUTS = {
   source_ohm: "source", load: "load-r", "load.resistance_ohm": "load-r", "load.reactance_ohm": "load-x",
   band: "start", "band.start_hz": "start", "band.stop_hz": "stop", max_reflection: "spec", min_return_loss_db: "spec", max_vswr: "spec",
@@ -11,7 +11,7 @@ const FIELD_INPUTS = {
   medium: "medium", "medium.velocity_factor": "vf", "medium.eps_r": "eps-r", "medium.height_m": "height",
   "medium.ground_spacing_m": "height", "medium.thickness_m": "thickness", "medium.outer_diameter_m": "outer",
   authorization: "api-key", "load.circuit": "circuit-r", "load.measured": "measured", "load.touchstone": "touchstone",
-  "medium.loss_tangent": "tan-d", "medium.conductivity_s_per_m": "sigma", "medium.roughness_m": "rough",
+  "medium.loss_tangent": "tan-d", junction_effects: "junctions", input_power_w: "power", "medium.conductivity_s_per_m": "sigma", "medium.roughness_m": "rough",
 };
 // Never the spec line's red (#a8321e): a design's peaks sit on that line.
 const COLORS = ["#1f6f6a", "#b8733a", "#5a4fa2", "#2b6cb0", "#3f7f2f", "#8a5a00", "#7a3b69", "#4a5568"];
@@ -44,6 +44,7 @@ const NUMBER_FIELDS = {
   "tan-d": { label: "Loss tangent", optional: true, check: (v) => (v >= 0 && v < 1 ? null : "must be from 0 to below 1") },
   sigma: { label: "Conductivity", unit: "S/m", optional: true, check: (v) => (v > 0 ? null : "must be above 0 S/m") },
   rough: { label: "Surface roughness", unit: "um", optional: true, check: (v) => (v >= 0 ? null : "cannot be negative") },
+  power: { label: "Incident power", unit: "W", optional: true, check: (v) => (v > 0 && v <= 1e7 ? null : "must be above 0 and at most 10 MW") },
   "y-low": { label: "y from", optional: true, check: () => null },
   "y-high": { label: "y to", optional: true, check: () => null },
 };
@@ -122,6 +123,9 @@ function buildRequest() {
     body.medium = { kind: medium, eps_r: number("eps-r", 1, problems), thickness_m: number("thickness", 1e-6, problems) };
     body.medium[medium === "microstrip" ? "height_m" : "ground_spacing_m"] = number("height", 1e-3, problems);
   }
+  if (medium === "microstrip" && value("junctions") !== "ignore") body.junction_effects = value("junctions");
+  const power = number("power", 1, problems);
+  if (power !== null) body.input_power_w = power;
   if (body.medium) {
     for (const [id, name, scale] of [["tan-d", "loss_tangent", 1], ["sigma", "conductivity_s_per_m", 1], ["rough", "roughness_m", 1e-6]]) {
       const given = number(id, scale, problems);
@@ -478,6 +482,32 @@ function fill(design, request) {
     return li;
   }));
   fillSections(design, request, design.sections.length <= LONG_TABLE_ROWS);
+  fillPower(design.power);
+}
+
+/** The power figures and their cautions, where power was given. */
+function fillPower(power) {
+  byId("power-box").hidden = !power;
+  if (!power) return;
+  const peak = (key) => Math.max(...power.sections.map((s) => s[key]));
+  const rows = [
+    ["Incident peak voltage", `${power.incident_peak_voltage_v.toPrecision(4)} V`],
+    ["Largest peak voltage", `${peak("peak_voltage_v").toPrecision(4)} V`],
+    ["Largest peak current", `${peak("peak_current_a").toPrecision(4)} A`],
+  ];
+  const margins = power.sections.map((s) => s.field_margin).filter((m) => m !== null);
+  if (margins.length) rows.push(["Smallest field margin", `${Math.min(...margins).toPrecision(3)} x the breakdown field`]);
+  if (power.narrowest_current_density_a_per_m2 !== null) {
+    rows.push(["Current density, narrowest strip", `${(power.narrowest_current_density_a_per_m2 / 1e6).toPrecision(4)} A/mm^2`]);
+  }
+  byId("power-figures").replaceChildren(...rows.flatMap(([term, text]) => {
+    const dt = document.createElement("dt");
+    dt.textContent = term;
+    const dd = document.createElement("dd");
+    dd.textContent = text;
+    return [dt, dd];
+  }));
+  byId("power-cautions").textContent = power.cautions;
 }
 
 /** The section table, or for a long design a summary with the full table on request. */
@@ -607,6 +637,19 @@ async function download(format) {
   }
 }
 
+/** The shown design's copper and board outline as Gerber X2 files, in a zip. */
+async function downloadLayout() {
+  if (!state.request) return;
+  const request = state.request;
+  try {
+    const { ok, status, response } = await post("/v1/layouts", { design: { method: request.method, ...request.body } });
+    if (!ok) { setStatus(`The layout download was refused (${status}).`, "stale"); return; }
+    save(await response.blob(), fileName(request, "zip").replace(/\.zip$/, "-gerber.zip"));
+  } catch (error) {
+    setStatus(`The layout download failed: ${error.message}.`, "stale");
+  }
+}
+
 function showRelevantFields() {
   const method = value("method");
   const medium = value("medium");
@@ -617,6 +660,7 @@ function showRelevantFields() {
   show(".medium-physical", medium !== "ideal");
   show(".medium-board", medium === "microstrip" || medium === "stripline");
   show(".medium-coax", medium === "coax");
+  show(".medium-microstrip", medium === "microstrip");
   const load = value("load-kind");
   for (const kind of ["fixed", "circuit", "measured", "touchstone"]) show(`.load-${kind}`, load === kind);
   show(".circuit-l", load === "circuit" && value("circuit-kind").endsWith("l"));
@@ -731,6 +775,7 @@ document.addEventListener("DOMContentLoaded", async () => {
   for (const id of ["y-low", "y-high"]) byId(id).addEventListener("change", () => { clearErrors(); drawResponse(); });
   byId("get-touchstone").addEventListener("click", () => download("touchstone"));
   byId("get-csv").addEventListener("click", () => download("csv"));
+  byId("get-gerber").addEventListener("click", downloadLayout);
   window.addEventListener("resize", drawResponse);
   await restoreKept();
   await design();
