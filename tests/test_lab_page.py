@@ -325,7 +325,8 @@ def test_only_the_chosen_load_forms_fields_show(browser, server_url):
 
 
 def test_a_microstrip_design_goes_to_gerber_with_steps_compensated_and_power(browser, server_url):
-    page = open_page(browser, server_url + "/?medium=microstrip&method=chebyshev&sections=3&junctions=compensate&power=25")
+    query = "?medium=microstrip&method=chebyshev&sections=3&junctions=compensate&power=25"
+    page = open_page(browser, server_url + "/" + query)
     assert page.is_visible("#junctions") and page.is_visible("#get-gerber")
     assert "junction steps are in the verified figures" in page.inner_text("#warnings")
     assert "Largest peak voltage" in page.inner_text("#power-figures")

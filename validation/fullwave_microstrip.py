@@ -39,16 +39,24 @@ CASES = [
     {
         "name": "3-section Chebyshev, 50 to 20 ohm, 2-4 GHz, eps_r 3.66, h 0.508 mm",
         "design": {
-            "method": "chebyshev", "theory": "exact", "sections": 3, "source_ohm": 50,
-            "load": {"resistance_ohm": 20}, "band": {"start_hz": 2e9, "stop_hz": 4e9},
+            "method": "chebyshev",
+            "theory": "exact",
+            "sections": 3,
+            "source_ohm": 50,
+            "load": {"resistance_ohm": 20},
+            "band": {"start_hz": 2e9, "stop_hz": 4e9},
             "medium": {"kind": "microstrip", "eps_r": 3.66, "height_m": 0.508e-3, "thickness_m": 35e-6},
         },
     },
     {
         "name": "2-section binomial, 50 to 25 ohm, 8-12 GHz, eps_r 3.0, h 0.254 mm",
         "design": {
-            "method": "binomial", "theory": "exact", "sections": 2, "source_ohm": 50,
-            "load": {"resistance_ohm": 25}, "band": {"start_hz": 8e9, "stop_hz": 12e9},
+            "method": "binomial",
+            "theory": "exact",
+            "sections": 2,
+            "source_ohm": 50,
+            "load": {"resistance_ohm": 25},
+            "band": {"start_hz": 8e9, "stop_hz": 12e9},
             "medium": {"kind": "microstrip", "eps_r": 3.0, "height_m": 0.254e-3, "thickness_m": 17e-6},
         },
     },
@@ -65,21 +73,37 @@ def post(url: str, path: str, body: dict) -> dict:
 
 def predictions(url: str, design_body: dict, frequencies: np.ndarray) -> dict:
     """The design and the service's |S11| at the given frequencies: ideal steps and with steps."""
-    design = post(url, "/v1/transformers/" + design_body["method"], {
-        **{k: v for k, v in design_body.items() if k != "method"}, "junction_effects": "include"})
+    design = post(
+        url,
+        "/v1/transformers/" + design_body["method"],
+        {**{k: v for k, v in design_body.items() if k != "method"}, "junction_effects": "include"},
+    )
     sections = [{"width_m": s["width_m"], "length_m": s["length_m"]} for s in design["sections"]]
     analysis = {k: v for k, v in design_body.items() if k not in ("method", "theory", "sections")}
-    analysis |= {"sections": sections, "band": {"start_hz": float(frequencies[0]), "stop_hz": float(frequencies[-1])},
-                 "points": len(frequencies)}
+    analysis |= {
+        "sections": sections,
+        "band": {"start_hz": float(frequencies[0]), "stop_hz": float(frequencies[-1])},
+        "points": len(frequencies),
+    }
     ideal = post(url, "/v1/networks/analyze", analysis)
     steps = post(url, "/v1/networks/analyze", analysis | {"junction_effects": "include"})
-    source = post(url, "/v1/networks/analyze", analysis | {"sections": [{"impedance_ohm": design_body["source_ohm"], "length_m": 0.01}]})
-    load = post(url, "/v1/networks/analyze", analysis | {"sections": [{"impedance_ohm": design_body["load"]["resistance_ohm"], "length_m": 0.01}]})
+    source = post(
+        url,
+        "/v1/networks/analyze",
+        analysis | {"sections": [{"impedance_ohm": design_body["source_ohm"], "length_m": 0.01}]},
+    )
+    load = post(
+        url,
+        "/v1/networks/analyze",
+        analysis | {"sections": [{"impedance_ohm": design_body["load"]["resistance_ohm"], "length_m": 0.01}]},
+    )
     return {
-        "design": design, "analysis": analysis,
+        "design": design,
+        "analysis": analysis,
         "ideal": np.array(ideal["response"]["reflection_magnitude"]),
         "steps": np.array(steps["response"]["reflection_magnitude"]),
-        "source_width_m": source["sections"][0]["width_m"], "load_width_m": load["sections"][0]["width_m"],
+        "source_width_m": source["sections"][0]["width_m"],
+        "load_width_m": load["sections"][0]["width_m"],
     }
 
 
@@ -88,7 +112,9 @@ def simulate(case: dict, predicted: dict, frequencies: np.ndarray, resolution_fa
     medium = case["design"]["medium"]
     h = medium["height_m"] * 1e3
     sections = predicted["design"]["sections"]
-    widths = [predicted["source_width_m"] * 1e3] + [s["width_m"] * 1e3 for s in sections] + [predicted["load_width_m"] * 1e3]
+    widths = (
+        [predicted["source_width_m"] * 1e3] + [s["width_m"] * 1e3 for s in sections] + [predicted["load_width_m"] * 1e3]
+    )
     lengths = [FEED_MM] + [s["length_m"] * 1e3 for s in sections] + [FEED_MM]
     edges = np.concatenate(([0.0], np.cumsum(lengths)))
     total = edges[-1]
@@ -109,7 +135,7 @@ def simulate(case: dict, predicted: dict, frequencies: np.ndarray, resolution_fa
     y_lines = [0.0, -half_width, half_width] + [s * w / 2 for w in widths for s in (-1, 1)]
     if not coarse:  # the third/two-thirds rule at every strip edge
         y_lines += [s * (w / 2 + d) for w in widths for s in (-1, 1) for d in (-resolution / 3, 2 * resolution / 3)]
-    z_lines = list(np.linspace(0, h, 3 if coarse else 5)) + [h + 8 * h]
+    z_lines = [*np.linspace(0, h, 3 if coarse else 5), 9 * h]
     mesh.AddLine("x", x_lines)
     mesh.AddLine("y", y_lines)
     mesh.AddLine("z", z_lines)
@@ -123,10 +149,28 @@ def simulate(case: dict, predicted: dict, frequencies: np.ndarray, resolution_fa
     for start, stop, width in zip(edges[1:-2], edges[2:-1], widths[1:-1], strict=True):
         metal.AddBox([start, -width / 2, h], [stop, width / 2, h], priority=10)
     ports = [
-        fdtd.AddMSLPort(1, metal, [0, -widths[0] / 2, h], [FEED_MM, widths[0] / 2, 0], "x", "z", excite=-1,
-                        FeedShift=10 * resolution, MeasPlaneShift=FEED_MM / 2, priority=10),
-        fdtd.AddMSLPort(2, metal, [total, -widths[-1] / 2, h], [total - FEED_MM, widths[-1] / 2, 0], "x", "z",
-                        MeasPlaneShift=FEED_MM / 2, priority=10),
+        fdtd.AddMSLPort(
+            1,
+            metal,
+            [0, -widths[0] / 2, h],
+            [FEED_MM, widths[0] / 2, 0],
+            "x",
+            "z",
+            excite=-1,
+            FeedShift=10 * resolution,
+            MeasPlaneShift=FEED_MM / 2,
+            priority=10,
+        ),
+        fdtd.AddMSLPort(
+            2,
+            metal,
+            [total, -widths[-1] / 2, h],
+            [total - FEED_MM, widths[-1] / 2, 0],
+            "x",
+            "z",
+            MeasPlaneShift=FEED_MM / 2,
+            priority=10,
+        ),
     ]
     cells = len(mesh.GetLines("x")) * len(mesh.GetLines("y")) * len(mesh.GetLines("z"))
     path = tempfile.mkdtemp(prefix="stepline-fdtd-")
@@ -155,18 +199,32 @@ def main() -> None:
         print(f"\n{case['name']}")
         for factor in factors:
             s11, z_load, cells, seconds = simulate(case, predicted, frequencies, factor, arguments.coarse)
-            measured = [{"frequency_hz": float(f), "resistance_ohm": float(z.real), "reactance_ohm": float(z.imag)}
-                        for f, z in zip(frequencies, z_load, strict=True)]
-            with_load = np.array(post(arguments.url, "/v1/networks/analyze", predicted["analysis"] | {
-                "load": {"measured": measured}, "junction_effects": "include"})["response"]["reflection_magnitude"])
-            print(f"  mesh x{factor:g}: {cells} cells, {seconds:.0f} s; simulated load line "
-                  f"{np.mean(z_load.real):.2f}{np.mean(z_load.imag):+.2f}j ohm (nominal {case['design']['load']['resistance_ohm']})")
+            measured = [
+                {"frequency_hz": float(f), "resistance_ohm": float(z.real), "reactance_ohm": float(z.imag)}
+                for f, z in zip(frequencies, z_load, strict=True)
+            ]
+            with_load = np.array(
+                post(
+                    arguments.url,
+                    "/v1/networks/analyze",
+                    predicted["analysis"] | {"load": {"measured": measured}, "junction_effects": "include"},
+                )["response"]["reflection_magnitude"]
+            )
+            print(
+                f"  mesh x{factor:g}: {cells} cells, {seconds:.0f} s; simulated load line "
+                f"{np.mean(z_load.real):.2f}{np.mean(z_load.imag):+.2f}j ohm "
+                f"(nominal {case['design']['load']['resistance_ohm']})"
+            )
             print("  GHz     FDTD   ideal  steps  steps+simulated load")
             for k in range(0, len(frequencies), 2):
-                print(f"  {frequencies[k] / 1e9:5.2f}  {s11[k]:.4f}  {predicted['ideal'][k]:.4f}  "
-                      f"{predicted['steps'][k]:.4f}  {with_load[k]:.4f}")
-            print(f"  worst in band: FDTD {s11.max():.4f}, ideal {predicted['ideal'].max():.4f}, "
-                  f"steps {predicted['steps'].max():.4f}, steps+simulated load {with_load.max():.4f}")
+                print(
+                    f"  {frequencies[k] / 1e9:5.2f}  {s11[k]:.4f}  {predicted['ideal'][k]:.4f}  "
+                    f"{predicted['steps'][k]:.4f}  {with_load[k]:.4f}"
+                )
+            print(
+                f"  worst in band: FDTD {s11.max():.4f}, ideal {predicted['ideal'].max():.4f}, "
+                f"steps {predicted['steps'].max():.4f}, steps+simulated load {with_load.max():.4f}"
+            )
 
 
 if __name__ == "__main__":
