@@ -204,3 +204,16 @@ def test_the_histogram_counts_every_trial_where_its_worst_reflection_falls(clien
     # The share of trials in bins wholly below the median is at most a half (definition of the median).
     below = sum(c for c, high in zip(counts, edges[1:], strict=True) if high <= result["percentiles"]["p50"])
     assert below <= result["trials"] / 2
+
+
+def test_planar_drawings_show_both_feed_lines_and_stay_legible_at_32_sections(client):
+    item = ITEM | {"method": "binomial", "sections": 32, "theory": "exact"}
+    item = {k: v for k, v in item.items() if v is not None and k != "max_reflection"}
+    response = client.post("/v1/drawings", json=item)
+    assert response.status_code == 200, response.text
+    root = ET.fromstring(response.text)
+    feeds = [r for r in root.iter(f"{SVG}rect") if r.get("class") == "feed"]
+    assert len(feeds) == 2
+    labels = [t for t in root.iter(f"{SVG}text") if t.get("transform", "").startswith("rotate")]
+    assert len(labels) <= 25  # every k-th section labelled, the last always; each keeps its tooltip
+    assert all(float(t.get("font-size", "11")) >= 8 for t in labels)

@@ -15,6 +15,7 @@ from service.api.limits import admit_design, admit_yield, design_options
 from service.api.scheduling import run_sized
 from service.formats.svg import transformer_svg
 from service.pipeline.items import Item
+from service.pipeline.layout import feed_widths
 from service.pipeline.options import DesignOptions
 from service.pipeline.wording import count_text
 from service.schemas.items import DesignItem
@@ -39,8 +40,9 @@ def drawing_svg(item: Item, options: DesignOptions) -> str:
     """The SVG drawing of the item's design (module level, so a worker process can run it)."""
     design = pipeline.design_item(item, options)
     outer = getattr(item.medium, "outer_diameter_m", None)
+    feeds = feed_widths(item) if design.medium in ("microstrip", "stripline") else None
     title = f"Stepline {item.method} transformer, {design.medium}, {count_text(len(design.sections), 'section')}"
-    return transformer_svg(design, title, outer)
+    return transformer_svg(design, title, outer, feeds)
 
 
 def build_router(settings: Settings) -> APIRouter:

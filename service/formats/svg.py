@@ -20,6 +20,7 @@ MAX_HALF_HEIGHT_PX = 90
 MIN_HALF_HEIGHT_PX = 1.0
 MAX_VISIBLE_LABELS = 24  # beyond this many sections every k-th is labelled; each keeps its own tooltip
 LABEL_TOP = 290
+FEED_PX = 40  # the feed line stubs drawn at each end (not to the horizontal scale)
 COPPER = "#b8733a"
 BOARD = "#20423a"
 SHIELD = "#8a96a3"
@@ -45,13 +46,18 @@ def _label(section, kind: str) -> str:
     return f"{section.impedance_ohm:.2f} ohm | {size} | L {section.length_m * 1e3:.3f} mm"
 
 
-def transformer_svg(design: AnalysisResult, title: str, outer_diameter_m: float | None = None) -> str:
-    """The drawing as SVG text."""
+def transformer_svg(
+    design: AnalysisResult,
+    title: str,
+    outer_diameter_m: float | None = None,
+    feed_widths_m: tuple[float, float] | None = None,
+) -> str:
+    """The drawing as SVG text; with feed_widths_m (planar lines) a feed line stub at each end."""
     kind = design.medium
     sections = design.sections
     total = max(sum(s.length_m for s in sections), 1e-12)  # sections may have (nearly) vanished
     sizes = [_size(s, kind) for s in sections]
-    largest = max([*sizes, outer_diameter_m or 0.0, 1e-12])
+    largest = max([*sizes, *(feed_widths_m or ()), outer_diameter_m or 0.0, 1e-12])
     x_scale = (DRAW_RIGHT - DRAW_LEFT) / total
     y_scale = MAX_HALF_HEIGHT_PX / (0.5 * largest)
     labelled_every = math.ceil(len(sections) / MAX_VISIBLE_LABELS)
@@ -72,8 +78,20 @@ def transformer_svg(design: AnalysisResult, title: str, outer_diameter_m: float 
         )
     elif kind in ("microstrip", "stripline"):
         parts.append(
-            f'<rect class="board" x="{DRAW_LEFT - 40}" y="{AXIS_Y - MAX_HALF_HEIGHT_PX - 20}" '
-            f'width="{DRAW_RIGHT - DRAW_LEFT + 80}" height="{2 * MAX_HALF_HEIGHT_PX + 40}" fill="{BOARD}" rx="6"/>'
+            f'<rect class="board" x="{DRAW_LEFT - FEED_PX - 10}" y="{AXIS_Y - MAX_HALF_HEIGHT_PX - 20}" '
+            f'width="{DRAW_RIGHT - DRAW_LEFT + 2 * FEED_PX + 20}" height="{2 * MAX_HALF_HEIGHT_PX + 40}" '
+            f'fill="{BOARD}" rx="6"/>'
+        )
+    feeds = zip((DRAW_LEFT - FEED_PX, DRAW_RIGHT), ("source", "load"), feed_widths_m or (), strict=False)
+    for x0, name, width_m in feeds:
+        half = max(MIN_HALF_HEIGHT_PX, 0.5 * width_m * y_scale)
+        parts.append(
+            f'<rect class="feed" x="{x0}" y="{AXIS_Y - half:.3f}" width="{FEED_PX}" height="{2 * half:.3f}" '
+            f'fill="{COPPER}" opacity="0.6"><title>{name} feed line, W {width_m * 1e3:.3f} mm</title></rect>'
+        )
+        parts.append(
+            f'<text x="{x0 + FEED_PX / 2}" y="{AXIS_Y + MAX_HALF_HEIGHT_PX + 34}" text-anchor="middle" '
+            f'font-size="10">{name} feed, W {width_m * 1e3:.3f} mm</text>'
         )
     top = AXIS_Y - MAX_HALF_HEIGHT_PX - 28
     parts.append(f'<text x="{DRAW_LEFT}" y="{top}">source side</text>')

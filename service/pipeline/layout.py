@@ -12,25 +12,30 @@ from service.pipeline.realize import geometry_for
 from service.pipeline.request_models import medium_model
 from service.schemas.layouts import LayoutRequest
 from service.schemas.results import TransformerDesign
+from service.schemas.transformers import MatchRequest
 
 COPPER_LAYERS = {"microstrip": "L1,Top", "stripline": "L2,Inr"}  # a stripline's strip is the middle layer
 
 
-def layout_strips(request: LayoutRequest, design: TransformerDesign) -> list[Strip]:
-    """The feed lines and sections along x, source side first. The source feed line has the source
-    impedance; the load feed line the load's resistance where the load is a plain resistance, else
-    the source impedance (a line to a connector)."""
-    item = request.design
+def feed_widths(item: MatchRequest) -> tuple[float, float]:
+    """Widths of the feed lines: the source's at the source impedance; the load's at the load's
+    resistance where the load is a plain resistance, else at the source impedance (a line to a connector)."""
     load = item.load
     resistive = load.resistance_ohm is not None and not load.reactance_ohm
-    feed_ohm = np.array([item.source_ohm, load.resistance_ohm if resistive else item.source_ohm])
-    source_width, load_width = geometry_for(item, feed_ohm)
-    strips = [Strip(0.0, request.feed_length_m, float(source_width), "source feed line")]
+    load_ohm = load.resistance_ohm if resistive else item.source_ohm
+    source, at_load = geometry_for(item, np.array([item.source_ohm, load_ohm]))
+    return float(source), float(at_load)
+
+
+def layout_strips(request: LayoutRequest, design: TransformerDesign) -> list[Strip]:
+    """The feed lines and sections along x, source side first (feed_widths says which width each feed has)."""
+    source_width, load_width = feed_widths(request.design)
+    strips = [Strip(0.0, request.feed_length_m, source_width, "source feed line")]
     position = request.feed_length_m
     for number, section in enumerate(design.sections, start=1):
         strips.append(Strip(position, section.length_m, section.width_m, f"section {number}"))
         position += section.length_m
-    strips.append(Strip(position, request.feed_length_m, float(load_width), "load feed line"))
+    strips.append(Strip(position, request.feed_length_m, load_width, "load feed line"))
     return strips
 
 
