@@ -8,7 +8,8 @@ import skrf
 from skrf.media import DefinedGammaZ0
 
 from service.analysis import network
-from service.physics.steps import StepElements, microstrip_step
+from service.physics.media.stripline import stripline_impedance
+from service.physics.steps import StepElements, microstrip_step, stripline_step
 
 C0 = 299_792_458.0
 MICROSTRIP = {"kind": "microstrip", "eps_r": 3.66, "height_m": 0.508e-3, "thickness_m": 35e-6}
@@ -108,9 +109,52 @@ def test_a_compensated_design_meets_its_spec_with_its_steps(client, f0, load):
     assert checked["verified"]["max_reflection"] == pytest.approx(compensated["verified"]["max_reflection"], rel=1e-6)
 
 
-def test_steps_need_microstrip_and_an_analysis_cannot_compensate(client, base_request):
+def test_steps_need_a_planar_line_and_an_analysis_cannot_compensate(client, base_request):
     refused = client.post("/v1/transformers/chebyshev", json=base_request | {"junction_effects": "include"})
-    assert refused.status_code == 422 and "microstrip" in refused.json()["problems"][0]["message"]
+    assert refused.status_code == 422 and "microstrip or stripline" in refused.json()["problems"][0]["message"]
+    coax = base_request | {"medium": {"kind": "coax", "eps_r": 2.1, "outer_diameter_m": 7e-3}}
+    assert client.post("/v1/transformers/chebyshev", json=coax | {"junction_effects": "include"}).status_code == 422
     sections = [{"impedance_ohm": 70.7, "electrical_length_deg": 90}]
     body = base_request | {"medium": MICROSTRIP, "sections": sections, "junction_effects": "compensate"}
     assert client.post("/v1/networks/analyze", json=body).status_code == 422
+
+
+def test_a_stripline_step_is_one_series_inductance_and_none_without_a_step():
+    same = stripline_step(np.array([40.0]), np.array([40.0]), 2.2, 1.6e-3)
+    assert same.left_inductance_h[0] == 0 and same.capacitance_f[0] == 0 and same.right_inductance_h[0] == 0
+    forward = stripline_step(np.array([30.0]), np.array([60.0]), 2.2, 1.6e-3)
+    backward = stripline_step(np.array([60.0]), np.array([30.0]), 2.2, 1.6e-3)
+    assert forward.left_inductance_h == pytest.approx(backward.left_inductance_h, rel=1e-15)  # symmetric
+    assert forward.capacitance_f[0] == 0
+
+
+def test_the_stripline_step_as_printed():
+    # Altschuler and Oliner, IRE Trans. MTT-8 (1960), step in width (from memory):
+    # X / Z1 = (2 D1 / lambda) ln csc(pi D2 / (2 D1)), D the parallel-plate equivalent width.
+    eps_r, b, z1, z2 = 2.2, 1.6e-3, 30.0, 60.0
+    d1, d2 = 376.730313668 * b / (4 * math.sqrt(eps_r) * np.array([z1, z2]))
+    f = 5e9
+    wavelength = C0 / (f * math.sqrt(eps_r))
+    reactance = z1 * 2 * d1 / wavelength * math.log(1 / math.sin(math.pi * d2 / (2 * d1)))
+    inductance = stripline_step(np.array([z1]), np.array([z2]), eps_r, b).left_inductance_h[0]
+    assert 2 * math.pi * f * inductance == pytest.approx(reactance, rel=1e-12)
+    # The equivalent width of a thin wide strip is W + 2 b ln 2 / pi (the same source, from memory):
+    # the impedance model's width agrees with it within 1% at W = b, t = 0.
+    z = float(stripline_impedance(np.array([b]), b, 0.0, eps_r)[0])
+    assert 376.730313668 * b / (4 * math.sqrt(eps_r) * z) == pytest.approx(b + 2 * b * math.log(2) / math.pi, rel=0.01)
+
+
+@pytest.mark.parametrize("f0", [2e9, 10e9])
+def test_a_compensated_stripline_design_meets_its_spec_with_its_steps(client, f0):
+    body = {
+        "source_ohm": 50.0,
+        "load": {"resistance_ohm": 20.0},
+        "band": {"start_hz": 0.8 * f0, "stop_hz": 1.2 * f0},
+        "theory": "exact",
+        "max_reflection": 0.05,
+        "medium": {"kind": "stripline", "eps_r": 2.2, "ground_spacing_m": 1.6e-3, "thickness_m": 17e-6},
+        "junction_effects": "compensate",
+    }
+    design = client.post("/v1/transformers/chebyshev", json=body).json()
+    assert design["verified"]["meets_spec"]
+    assert design["junction_effects"]["model"].startswith("stripline step")

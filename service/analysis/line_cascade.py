@@ -17,7 +17,7 @@ from service.analysis import network
 from service.constants import SPEED_OF_LIGHT_M_PER_S
 from service.physics.loads import FixedLoad, LoadModel
 from service.physics.media import Medium
-from service.physics.steps import StepElements, inductance_per_m_h, microstrip_step
+from service.physics.steps import StepElements, inductance_per_m_h, microstrip_step, stripline_step
 
 STACK_DESIGNS = 32  # designs per stacked cascade evaluation
 CHUNK_ELEMENTS = 1 << 18  # designs x frequencies x sections evaluated at once (bounds memory)
@@ -63,11 +63,21 @@ class LineCascade:
         f = np.asarray(frequency_hz, dtype=float)[..., None]
         params = self.medium.parameters(self.geometry, f)
         feed = self.medium.parameters(np.asarray(self.feed_geometry), f)
-        per_m = inductance_per_m_h(params.impedance_ohm, params.eps_eff)
-        feed_per_m = inductance_per_m_h(feed.impedance_ohm, feed.eps_eff)
-        geometry = np.broadcast_to(self.geometry, per_m.shape)
-        left = np.concatenate((np.broadcast_to(self.feed_geometry, (*per_m.shape[:-1], 1)), geometry[..., :-1]), -1)
-        left_per_m = np.concatenate((np.broadcast_to(feed_per_m, (*per_m.shape[:-1], 1)), per_m[..., :-1]), -1)
+        shape = params.impedance_ohm.shape
+
+        def with_feed_first(values: np.ndarray, feed_value: np.ndarray) -> np.ndarray:
+            """Each junction's source-side value: the feed line's, then each section's but the last."""
+            values = np.broadcast_to(values, shape)
+            return np.concatenate((np.broadcast_to(feed_value, (*shape[:-1], 1)), values[..., :-1]), -1)
+
+        impedance = np.broadcast_to(params.impedance_ohm, shape)
+        left_impedance = with_feed_first(impedance, feed.impedance_ohm)
+        if self.medium.kind == "stripline":
+            return stripline_step(left_impedance, impedance, self.medium.eps_r, self.medium.ground_spacing_m)
+        per_m = inductance_per_m_h(impedance, params.eps_eff)
+        left_per_m = with_feed_first(per_m, inductance_per_m_h(feed.impedance_ohm, feed.eps_eff))
+        geometry = np.broadcast_to(self.geometry, shape)
+        left = with_feed_first(geometry, np.asarray(self.feed_geometry))
         return microstrip_step(left, geometry, left_per_m, per_m, self.medium.eps_r, self.medium.height_m)
 
     def _abcd_with_steps(self, frequency_hz: np.ndarray) -> network.Abcd:

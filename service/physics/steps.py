@@ -1,5 +1,16 @@
 """Step discontinuities: the lumped equivalent circuit of a junction between two line widths.
 
+Stripline step in width, after Altschuler and Oliner ("Discontinuities in the center conductor of
+symmetric strip transmission line", IRE Trans. MTT-8, 1960): a series reactance at the step,
+
+    X / Z1 = (2 D1 / lambda) ln csc(pi D2 / (2 D1)),
+
+with Z1 the wider line's impedance, lambda the wavelength in the dielectric and D1 > D2 the
+strips' equivalent parallel-plate widths, D = eta0 b / (4 sqrt(eps_r) Z) (b the ground spacing;
+for a thin wide strip D = W + 2 b ln 2 / pi). X grows in proportion to frequency, so it is an
+inductance, L = Z1 D1 sqrt(eps_r) ln csc(pi D2 / (2 D1)) / (pi c). It was derived for thin
+strips wide enough that their edges do not interact (warned otherwise).
+
 Microstrip step in width, after the closed-form fits collected by Gupta, Garg, Bahl and Bhartia
 ("Microstrip Lines and Slotlines", 2nd ed., Artech House, 1996, the step-in-width section; the fits
 are Garg and Bahl's). The junction is a shunt capacitance C at the step with a series inductance on
@@ -25,9 +36,14 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from service.constants import SPEED_OF_LIGHT_M_PER_S
+from service.constants import ETA_0_OHM, SPEED_OF_LIGHT_M_PER_S
 
-MODEL_NAME = "microstrip step in width (Garg-Bahl fits, as collected by Gupta, Garg, Bahl and Bhartia)"
+MODEL_NAMES = {
+    "microstrip": "microstrip step in width (Garg-Bahl fits, as collected by Gupta, Garg, Bahl and Bhartia)",
+    "stripline": "stripline step in width (Altschuler and Oliner, 1960)",
+}
+STRIPLINE_WIDE_STRIP = 0.35  # W / (b - t) from which a strip counts as wide (as in the stripline model's notes)
+STRIPLINE_THIN_STRIP = 0.1  # t / b up to which a strip counts as thin
 CAPACITANCE_FIT_RANGE = (1.5, 3.5)
 WIDE_FIT_EPS_R = 9.6
 WIDE_FIT_RANGE = (3.5, 10.0)
@@ -80,14 +96,44 @@ def microstrip_step(
     return StepElements(share * inductance, capacitance, (1.0 - share) * inductance)
 
 
+def stripline_step(
+    left_impedance_ohm: np.ndarray, right_impedance_ohm: np.ndarray, eps_r: float, ground_spacing_m: float
+) -> StepElements:
+    """The junction between striplines of these impedances: one series inductance at the step."""
+    left, right = np.asarray(left_impedance_ohm, dtype=float), np.asarray(right_impedance_ohm, dtype=float)
+    wide_ohm = np.minimum(left, right)  # the wider strip has the lower impedance
+    scale = ETA_0_OHM * ground_spacing_m / (4.0 * np.sqrt(eps_r))
+    wide, narrow = scale / wide_ohm, scale / np.maximum(left, right)
+    inductance = wide_ohm * wide * np.sqrt(eps_r) * np.log(1.0 / np.sin(np.pi * narrow / (2.0 * wide)))
+    inductance = inductance / (np.pi * SPEED_OF_LIGHT_M_PER_S)
+    return StepElements(inductance, np.zeros_like(inductance), np.zeros_like(inductance))
+
+
 def inductance_per_m_h(impedance_ohm: np.ndarray, eps_eff: np.ndarray) -> np.ndarray:
     """A TEM or quasi-TEM line's inductance per unit length, Z sqrt(eps_eff) / c."""
     return np.asarray(impedance_ohm) * np.sqrt(eps_eff) / SPEED_OF_LIGHT_M_PER_S
 
 
-def step_notes(widths_m: np.ndarray, eps_r: float, height_m: float) -> list[str]:
-    """Where the junctions of this chain of widths (feed line first) leave the fits' stated ranges."""
-    widths = np.asarray(widths_m, dtype=float)
+def step_notes(medium: object, widths_m: np.ndarray) -> list[str]:
+    """Where the junctions of this chain of widths (feed line first) leave the model's stated range."""
+    if medium.kind == "stripline":
+        return _stripline_notes(np.asarray(widths_m, dtype=float), medium.ground_spacing_m, medium.thickness_m)
+    return _microstrip_notes(np.asarray(widths_m, dtype=float), medium.eps_r)
+
+
+def _stripline_notes(widths: np.ndarray, ground_spacing_m: float, thickness_m: float) -> list[str]:
+    notes = []
+    if np.min(widths) / (ground_spacing_m - thickness_m) < STRIPLINE_WIDE_STRIP:
+        notes.append(
+            f"Some strips are narrower than {STRIPLINE_WIDE_STRIP:g} of the ground spacing: the stripline step "
+            "model was derived for wide strips, so treat the with-step figures as estimates."
+        )
+    if thickness_m / ground_spacing_m > STRIPLINE_THIN_STRIP:
+        notes.append("The strips are thick for the stripline step model (derived for thin strips).")
+    return notes
+
+
+def _microstrip_notes(widths: np.ndarray, eps_r: float) -> list[str]:
     ratios = np.maximum(widths[:-1], widths[1:]) / np.minimum(widths[:-1], widths[1:])
     notes = []
     wide_limit = WIDE_FIT_RANGE[1] if eps_r == WIDE_FIT_EPS_R else CAPACITANCE_FIT_RANGE[1]

@@ -1,5 +1,5 @@
 """The junction steps of a physical design: included in its exact check, or compensated by
-adjusting its section lengths (microstrip; the model is in physics/steps.py)."""
+adjusting its section lengths (microstrip and stripline; the models are in physics/steps.py)."""
 
 from __future__ import annotations
 
@@ -9,7 +9,7 @@ import numpy as np
 
 from service.analysis.line_cascade import LineCascade
 from service.analysis.worst_case import check
-from service.physics.steps import MODEL_NAME, step_notes
+from service.physics.steps import MODEL_NAMES, step_notes
 from service.pipeline.realize import geometry_for, quarter_wave_m
 from service.pipeline.refine import refine_minimax
 from service.schemas.results import JunctionEffects, ResponseCurve, StepCircuitResult, VerifiedFigures
@@ -35,7 +35,7 @@ def junction_check(line: LineCascade, request: MatchRequest, ideal: VerifiedFigu
     band, spec = request.band, request.spec_reflection
     feed = float(geometry_for(request, np.array([request.source_ohm]))[0])
     stepped = replace(line, feed_geometry=feed)
-    notes = step_notes(np.concatenate(([feed], line.geometry)), line.medium.eps_r, line.medium.height_m)
+    notes = step_notes(line.medium, np.concatenate(([feed], line.geometry)))
     uncompensated, changes = None, None
     if request.junction_effects == "compensate":
         uncompensated = check(stepped, band.start_hz, band.stop_hz, spec, request.points)[0].max_reflection
@@ -59,7 +59,7 @@ def junction_check(line: LineCascade, request: MatchRequest, ideal: VerifiedFigu
     ]
     block = JunctionEffects(
         mode=request.junction_effects,
-        model=MODEL_NAME,
+        model=MODEL_NAMES[line.medium.kind],
         ideal_max_reflection=ideal.max_reflection,
         with_steps_max_reflection=figures.max_reflection,
         uncompensated_max_reflection=uncompensated,
