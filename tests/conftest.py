@@ -24,6 +24,15 @@ BASE_REQUEST = {
     "band": {"start_hz": 1.0e9, "stop_hz": 3.0e9},
     "points": 41,
 }
+# A lossy board of our own: 0.508 mm, eps_r 3.66, loss tangent 0.004, copper strips 35 um thick.
+LOSSY_MICROSTRIP = {
+    "kind": "microstrip",
+    "eps_r": 3.66,
+    "height_m": 0.508e-3,
+    "thickness_m": 35e-6,
+    "loss_tangent": 0.004,
+    "conductivity_s_per_m": 5.8e7,
+}
 
 
 @pytest.fixture(scope="session")

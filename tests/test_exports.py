@@ -9,14 +9,7 @@ import numpy as np
 import pytest
 import skrf
 
-MICROSTRIP = {
-    "kind": "microstrip",
-    "eps_r": 3.66,
-    "height_m": 0.508e-3,
-    "thickness_m": 35e-6,
-    "loss_tangent": 0.004,
-    "conductivity_s_per_m": 5.8e7,
-}
+from tests.conftest import LOSSY_MICROSTRIP
 
 
 def read_with_scikit_rf(text: str) -> skrf.Network:
@@ -27,7 +20,7 @@ def read_with_scikit_rf(text: str) -> skrf.Network:
     return skrf.Network(path)
 
 
-@pytest.mark.parametrize("medium", [None, MICROSTRIP])
+@pytest.mark.parametrize("medium", [None, LOSSY_MICROSTRIP])
 @pytest.mark.parametrize("endpoint", ["chebyshev", "taper"])
 def test_touchstone_reads_back_with_scikit_rf(client, base_request, medium, endpoint):
     body = base_request | {"sections": 3} if endpoint == "chebyshev" else base_request | {"max_reflection": 0.05}

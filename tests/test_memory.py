@@ -13,17 +13,9 @@ from service.schemas.bulk import SweepRequest
 from service.schemas.networks import AnalyzeRequest
 from service.schemas.tapers import TaperRequest
 from service.settings import Settings
-from tests.conftest import BASE_REQUEST
+from tests.conftest import BASE_REQUEST, LOSSY_MICROSTRIP
 
 DOCUMENTED_PEAK_MIB = 512  # README, Limits
-LOSSY_MICROSTRIP = {
-    "kind": "microstrip",
-    "eps_r": 3.66,
-    "height_m": 0.508e-3,
-    "thickness_m": 35e-6,
-    "loss_tangent": 0.004,
-    "conductivity_s_per_m": 5.8e7,
-}
 
 
 def _peak_mib(work) -> float:

@@ -15,17 +15,9 @@ from urllib.parse import urlparse
 import httpx
 import pytest
 
-from tests.conftest import BASE_REQUEST, live_process
+from tests.conftest import BASE_REQUEST, LOSSY_MICROSTRIP, live_process
 
 ROOT = Path(__file__).resolve().parent.parent
-LOSSY_MICROSTRIP = {
-    "kind": "microstrip",
-    "eps_r": 3.66,
-    "height_m": 0.508e-3,
-    "thickness_m": 35e-6,
-    "loss_tangent": 0.004,
-    "conductivity_s_per_m": 5.8e7,
-}
 # Accepted (priced under the budget) and several seconds of work in a worker process.
 LONG_TAPER = BASE_REQUEST | {
     "profile": "triangular",

@@ -30,6 +30,18 @@ async def send_error(send: Send, status: int, title: str, field: str, message: s
     await send({"type": "http.response.body", "body": payload})
 
 
+class StartWatch:
+    """A send that notes whether the response has started: until it has, an error can still be answered."""
+
+    def __init__(self, send: Send) -> None:
+        self.send = send
+        self.started = False
+
+    async def __call__(self, message: Message) -> None:
+        self.started = self.started or message["type"] == "http.response.start"
+        await self.send(message)
+
+
 class BodyLimit:
     """Refuse bodies over the limit with 413, whether announced by Content-Length or streamed, and
     bodies that do not arrive whole within the read time with 408 (a client that declares a body
@@ -49,7 +61,6 @@ class BodyLimit:
             await self._refuse(send)
             return
         received = 0
-        started = False
         body_done = False
         deadline = time.monotonic() + self.read_timeout_s
 
@@ -68,16 +79,11 @@ class BodyLimit:
                 body_done = not message.get("more_body", False)
             return message
 
-        async def tracking(message: Message) -> None:
-            nonlocal started
-            if message["type"] == "http.response.start":
-                started = True
-            await send(message)
-
+        watched = StartWatch(send)
         try:
-            await self.app(scope, counted, tracking)
+            await self.app(scope, counted, watched)
         except BodyTooLargeError:
-            if not started:
+            if not watched.started:
                 await self._refuse(send)
 
     async def _refuse(self, send: Send) -> None:
@@ -109,17 +115,11 @@ class ShutdownAnswer:
         if scope["type"] != "http":
             await self.app(scope, receive, send)
             return
-        started = False
-
-        async def tracking(message: Message) -> None:
-            nonlocal started
-            started = started or message["type"] == "http.response.start"
-            await send(message)
-
+        watched = StartWatch(send)
         try:
-            await self.app(scope, receive, tracking)
+            await self.app(scope, receive, watched)
         except asyncio.CancelledError:
-            if not started:
+            if not watched.started:
                 message = "the server is shutting down; send the request again"
                 await send_error(send, 503, "shutting down", "request", message, [(b"connection", b"close")])
             raise

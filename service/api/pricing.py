@@ -33,6 +33,7 @@ from service.constants import (
     MAX_POINTS,
     MAX_SECTIONS,
     MAX_SEGMENTS,
+    SPEED_OF_LIGHT_M_PER_S,
     YIELD_GRID_POINTS,
 )
 from service.pipeline.compare import compare_items
@@ -61,7 +62,6 @@ GUESSED_RATIO = 4.0  # impedance ratio of a load that is not a plain resistance
 PEAK_CHECK_POINTS = PEAKS_REFINED * (PEAK_POINTS + 1)  # a fine grid and a vertex per refined peak
 SWEEP_SAMPLES = 256  # grid points priced one by one; a larger sweep is priced from evenly spread ones
 MAX_PRICED = 1e15  # any larger number in a body is refused by validation before it costs anything
-C0_M_PER_S = 299_792_458.0
 
 
 def _number(value: Any, default: float, high: float = MAX_PRICED) -> float:
@@ -156,7 +156,7 @@ def _total_angle(item: dict[str, Any], sections: float, taper: bool) -> float:
     if taper:
         length = _number(item.get("length_m"), 0.0, 1e6)
         if length > 0:
-            return 2.0 * math.pi * stop * _slowness(item) * length / C0_M_PER_S
+            return 2.0 * math.pi * stop * _slowness(item) * length / SPEED_OF_LIGHT_M_PER_S
         return _taper_start_angle(item) * stop / start
     return sections * math.pi / 2.0 * 2.0 * stop / (start + stop)
 
@@ -171,18 +171,22 @@ def checked_points(item: dict[str, Any], total_angle_rad: float) -> float:
     return aligned + PEAK_CHECK_POINTS
 
 
-def check_seconds(item: dict[str, Any], sections: float, total_angle_rad: float) -> float:
-    """One exact check of a line of `sections` sections and that electrical length."""
+def check_seconds(item: dict[str, Any], sections: float, total_angle_rad: float, cost: str | None = None) -> float:
+    """One exact check of a line of `sections` sections and that electrical length (`cost`: the
+    line's cost class, the item's medium_class by default)."""
     points = checked_points(item, total_angle_rad)
-    return sections * points * PER_SECTION_POINT_S[medium_class(item)]
+    return sections * points * PER_SECTION_POINT_S[cost or medium_class(item)]
 
 
-def refinement_seconds(item: dict[str, Any], free_sections: float, line_sections: float) -> float:
+def refinement_seconds(
+    item: dict[str, Any], free_sections: float, line_sections: float, cost: str | None = None
+) -> float:
     """One refinement: its optimizer's work grows with the free sections and the line's length,
     and stops at its own time limit; then one check of its result."""
-    scale = REFINE_MEDIUM_FACTOR[medium_class(item)] * max(line_sections / 16.0, 1.0)
+    cost = cost or medium_class(item)
+    scale = REFINE_MEDIUM_FACTOR[cost] * max(line_sections / 16.0, 1.0)
     optimizer = min(REFINE_SCALE_S * free_sections**REFINE_GROWTH * scale, REFINE_LIMIT_S)
-    return optimizer + check_seconds(item, line_sections, line_sections * math.pi)
+    return optimizer + check_seconds(item, line_sections, line_sections * math.pi, cost)
 
 
 def _stepped_seconds(item: dict[str, Any], stacked: bool) -> float:
@@ -203,10 +207,10 @@ def _junction_seconds(item: dict[str, Any], sections: float, spec_driven: bool) 
     mode = item.get("junction_effects")
     if mode not in ("include", "compensate"):
         return 0.0
-    lossy = item | {"medium": _dict(item.get("medium")) | {"loss_tangent": 1.0}}  # the complex-arithmetic path
-    one = check_seconds(lossy, sections, _total_angle(item, sections, False))
+    # a line with its step circuits is evaluated in complex arithmetic, like a lossy one
+    one = check_seconds(item, sections, _total_angle(item, sections, False), "lossy")
     checks = (2.0 if mode == "compensate" else 1.0) * one
-    compensation = refinement_seconds(lossy, sections, sections) if mode == "compensate" else 0.0
+    compensation = refinement_seconds(item, sections, sections, "lossy") if mode == "compensate" else 0.0
     return (checks + compensation) * (SPEC_PASSES if spec_driven else 1.0)
 
 
@@ -249,7 +253,7 @@ def analyze_seconds(request: AnalyzeRequest) -> float:
     angle = sum(
         math.radians(s.electrical_length_deg) * centre / (s.reference_hz or centre)
         if s.electrical_length_deg is not None
-        else 2.0 * math.pi * centre * slowness * (s.length_m or 0.0) / C0_M_PER_S
+        else 2.0 * math.pi * centre * slowness * (s.length_m or 0.0) / SPEED_OF_LIGHT_M_PER_S
         for s in request.sections
     )
     count = float(len(request.sections))

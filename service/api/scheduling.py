@@ -18,6 +18,7 @@ import atexit
 import multiprocessing
 import os
 from collections.abc import Callable
+from concurrent.futures import Future
 from concurrent.futures import TimeoutError as FutureTimeout
 from concurrent.futures.process import BrokenProcessPool
 from typing import Any, TypeVar
@@ -73,18 +74,25 @@ async def run_sized(
     if estimated_s <= INLINE_LIMIT_S:
         return function(*args)
     future = worker_pool().schedule(function, args=args, timeout=deadline_s)
-    work = asyncio.wrap_future(future)
-    watcher = asyncio.ensure_future(_client_gone(http) if http is not None else asyncio.Event().wait())
     try:
-        done, _ = await asyncio.wait({work, watcher}, return_when=asyncio.FIRST_COMPLETED)
-        if work not in done:
-            future.cancel()  # pebble stops the worker running it and starts a fresh one
-            raise ClientGoneError()
-        return work.result()
+        return await _result_unless_abandoned(future, http)
     except (FutureTimeout, ProcessExpired, BrokenProcessPool):
         raise ComputeTimeoutError(deadline_s) from None
-    except asyncio.CancelledError:  # the request itself was cancelled (a shutdown): stop its work
-        future.cancel()
+    except (asyncio.CancelledError, ClientGoneError):  # a shutdown, or nobody left to answer
+        future.cancel()  # pebble stops the worker running it and starts a fresh one
         raise
+
+
+async def _result_unless_abandoned(future: Future, http: Request | None) -> Any:
+    """The future's result, or ClientGoneError as soon as the client of `http` disconnects."""
+    work = asyncio.wrap_future(future)
+    if http is None:
+        return await work
+    watcher = asyncio.ensure_future(_client_gone(http))
+    try:
+        done, _ = await asyncio.wait({work, watcher}, return_when=asyncio.FIRST_COMPLETED)
     finally:
         watcher.cancel()
+    if work not in done:
+        raise ClientGoneError()
+    return work.result()

@@ -6,10 +6,9 @@ import numpy as np
 
 from service.analysis.section_tables import section_tables
 from service.analysis.worst_case import check
-from service.pipeline.junction_effects import junction_check
+from service.pipeline.board import board_check
 from service.pipeline.messages import bode_fano_warnings, spec_warnings
 from service.pipeline.options import DesignOptions
-from service.pipeline.power import power_figures
 from service.pipeline.realize import geometry_for, realize_geometry
 from service.pipeline.shared_blocks import checked_blocks
 from service.pipeline.target import covered_load
@@ -43,19 +42,13 @@ def analyze(request: AnalyzeRequest, options: DesignOptions | None = None) -> An
         line = line.with_sections(line.geometry, np.where(given, physical, line.lengths_m))
     band = request.band
     verified, curve = check(line, band.start_hz, band.stop_hz, request.spec_reflection, request.points)
-    junctions, step_notes = None, ()
-    if request.junction_effects == "include":
-        stepped = junction_check(line, request, verified)
-        line, verified, curve, junctions = stepped.line, stepped.figures, stepped.curve, stepped.block
-        step_notes = stepped.notes
+    board = board_check(request, line, verified, curve)
+    line, verified, curve = board.line, board.figures, board.curve
     table = section_tables([line], np.array([band.center_hz]))[0]
     blocks = checked_blocks(line, request, verified, curve, table, options)
-    warnings = [*blocks.medium_notes, *step_notes, *spec_warnings(verified)]
+    warnings = [*blocks.medium_notes, *board.step_notes, *spec_warnings(verified)]
     warnings += bode_fano_warnings(blocks.bode_fano, request.spec_reflection)
     reflection = line.input_reflection(np.asarray(curve.frequency_hz))
     complex_curve = ComplexReflection(real=reflection.real.tolist(), imag=reflection.imag.tolist())
-    fields = blocks.fields | {"input_reflection": complex_curve, "junction_effects": junctions}
-    if request.input_power_w is not None:
-        fields["power"], power_notes = power_figures(request, line)
-        warnings += power_notes
-    return AnalysisResult(**fields, warnings=warnings)
+    fields = blocks.fields | {"input_reflection": complex_curve} | board.fields
+    return AnalysisResult(**fields, warnings=[*warnings, *board.power_notes])

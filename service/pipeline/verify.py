@@ -16,7 +16,7 @@ from service.analysis.section_tables import SectionTable, section_tables
 from service.analysis.worst_case import check_many
 from service.constants import SMALL_REFLECTION
 from service.errors import UnmeetableRequestError
-from service.pipeline.junction_effects import junction_check
+from service.pipeline.board import board_check
 from service.pipeline.messages import (
     bode_fano_warnings,
     coverage_warnings,
@@ -27,7 +27,6 @@ from service.pipeline.messages import (
     unmatched_warnings,
 )
 from service.pipeline.options import DesignOptions
-from service.pipeline.power import power_figures
 from service.pipeline.realize import line_for
 from service.pipeline.refined_check import limit_refusal, needs_refinement, refined_check
 from service.pipeline.shared_blocks import checked_blocks
@@ -128,16 +127,10 @@ def _verify_lines(
             refined = refined_check(line, pending.request, pending.target, pending.theory, taper, figures, options)
             line, refinement, curve, notes = refined.line, refined.refinement, refined.curve, refined.notes
             figures = refinement.after
-        extras: dict[str, object] = {}
-        if pending.request.junction_effects != "ignore":
-            stepped = junction_check(line, pending.request, figures)
-            line, figures, curve = stepped.line, stepped.figures, stepped.curve
-            extras["junction_effects"] = stepped.block
-            notes = (*notes, *stepped.notes)
-        if pending.request.input_power_w is not None:
-            extras["power"], power_notes = power_figures(pending.request, line)
-            notes = (*notes, *power_notes)
-        checked.append((replace(pending, notes=pending.notes + notes), line, figures, refinement, curve, extras))
+        board = board_check(pending.request, line, figures, curve)
+        line, figures, curve = board.line, board.figures, board.curve
+        notes = (*notes, *board.step_notes, *board.power_notes)
+        checked.append((replace(pending, notes=pending.notes + notes), line, figures, refinement, curve, board.fields))
     centers = np.array([j.request.band.center_hz for j in queue])
     tables = section_tables([line for _, line, *_ in checked], centers, junctions=not summaries)
     return [_assemble(*parts, table, options, summaries) for parts, table in zip(checked, tables, strict=True)]

@@ -109,7 +109,8 @@ function addReadout(svg, options, sx, sy, margin, width, height, x0, x1) {
     let nearest = 0;
     series.x.forEach((value, i) => { if (Math.abs(value - x) < Math.abs(series.x[nearest] - x)) nearest = i; });
     const [px, py] = [series.x[nearest], series.y[nearest]];
-    for (const [name, v] of [["x1", sx(px)], ["x2", sx(px)]]) cursor.setAttribute(name, v);
+    cursor.setAttribute("x1", sx(px));
+    cursor.setAttribute("x2", sx(px));
     dot.setAttribute("cx", sx(px));
     dot.setAttribute("cy", sy(py));
     cursor.setAttribute("visibility", "visible");
