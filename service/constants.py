@@ -11,6 +11,7 @@ import math
 SPEED_OF_LIGHT_M_PER_S = 299_792_458.0  # c0, exact by the SI definition of the metre
 MU_0_H_PER_M = 4e-7 * math.pi  # the pre-2019 SI value; the 2019 value differs by 1e-10, far below what matters here
 ETA_0_OHM = 376.730313668  # impedance of free space, mu0 c0 (CODATA 2018)
+EPSILON_0_F_PER_M = 1.0 / (ETA_0_OHM * SPEED_OF_LIGHT_M_PER_S)  # permittivity of free space, 1 / (eta0 c0)
 
 SMALL_REFLECTION = "small-reflection"  # the name of the approximate theory on the wire
 EXACT = "exact"  # the name of the exact theory on the wire

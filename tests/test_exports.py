@@ -76,3 +76,31 @@ def test_two_port_data_order_keyword_matches_the_columns():
     s = np.array([[[0.1 + 0.0j, 0.02 + 0.01j], [0.9 - 0.1j, 0.2j]], [[0.15j, 0.03 + 0.0j], [0.8 + 0.2j, -0.1 + 0.0j]]])
     network = read_with_scikit_rf(write_two_port(frequency, s, (50.0, 50.0), ["non-reciprocal check"]))
     np.testing.assert_allclose(network.s, s, atol=1e-15)
+
+
+STEPPED_MEDIA = [
+    {"kind": "microstrip", "eps_r": 3.66, "height_m": 0.508e-3, "thickness_m": 35e-6},
+    {"kind": "stripline", "eps_r": 2.2, "ground_spacing_m": 1.6e-3, "thickness_m": 17e-6},
+    {"kind": "coax", "eps_r": 1.0, "outer_diameter_m": 7e-3},
+]
+
+
+@pytest.mark.parametrize("mode", ["include", "compensate"])
+@pytest.mark.parametrize("medium", STEPPED_MEDIA, ids=[m["kind"] for m in STEPPED_MEDIA])
+def test_the_touchstone_file_of_a_design_with_steps_is_the_design_with_its_steps(client, mode, medium):
+    # The file describes the design whose figures the response gives: with steps where they count.
+    body = {
+        "source_ohm": 50.0,
+        "load": {"resistance_ohm": 18.0},
+        "band": {"start_hz": 6e9, "stop_hz": 10e9},
+        "sections": 3,
+        "theory": "exact",
+        "medium": medium,
+        "junction_effects": mode,
+        "points": 41,
+    }
+    design = client.post("/v1/transformers/chebyshev", json=body).json()
+    network = read_with_scikit_rf(client.post("/v1/transformers/chebyshev?format=touchstone", json=body).text)
+    assert np.max(np.abs(np.abs(network.s[:, 0, 0]) - design["response"]["reflection_magnitude"])) < 1e-9
+    ideal = client.post("/v1/transformers/chebyshev?format=touchstone", json=body | {"junction_effects": "ignore"})
+    assert np.max(np.abs(read_with_scikit_rf(ideal.text).s[:, 0, 0] - network.s[:, 0, 0])) > 1e-4

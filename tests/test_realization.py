@@ -217,3 +217,27 @@ def test_planar_drawings_show_both_feed_lines_and_stay_legible_at_32_sections(cl
     labels = [t for t in root.iter(f"{SVG}text") if t.get("transform", "").startswith("rotate")]
     assert len(labels) <= 25  # every k-th section labelled, the last always; each keeps its tooltip
     assert all(float(t.get("font-size", "11")) >= 8 for t in labels)
+
+
+@pytest.mark.parametrize(
+    "medium",
+    [ITEM["medium"], {"kind": "coax", "eps_r": 2.1, "outer_diameter_m": 4.1e-3}],
+    ids=["microstrip", "coax"],
+)
+def test_yield_trials_count_the_junction_steps_when_the_design_does(client, medium):
+    item = ITEM | {"medium": medium, "junction_effects": "compensate"}
+    nominal = yield_of(client, {}, trials=50, item=item)
+    # the nominal line is the compensated design with its steps, on the yield grid (201 points):
+    # the analysis of its sections with steps on the same grid gives the same worst reflection
+    sections = [{"length_m": s["length_m"], "impedance_ohm": s["impedance_ohm"]} for s in nominal["design"]["sections"]]
+    analysis = {k: v for k, v in item.items() if k not in ("method", "theory", "sections")}
+    analysis |= {"sections": sections, "junction_effects": "include", "points": 201}
+    checked = client.post("/v1/networks/analyze", json=analysis).json()
+    grid_worst = max(checked["response"]["reflection_magnitude"])
+    assert nominal["nominal_max_reflection"] == pytest.approx(grid_worst, rel=1e-9)
+    assert nominal["worst_max_reflection"] == pytest.approx(grid_worst, rel=1e-9)  # no tolerance, no spread
+    ideal = client.post("/v1/networks/analyze", json=analysis | {"junction_effects": "ignore"}).json()
+    assert max(ideal["response"]["reflection_magnitude"]) != pytest.approx(grid_worst, rel=1e-3)
+    assert "each trial's steps are those of its own drawn widths" in nominal["method"]
+    spread = yield_of(client, {"width_m": 20e-6, "eps_r": 0.05, "etch_bias_m": 10e-6}, trials=200, item=item)
+    assert spread["worst_max_reflection"] > grid_worst

@@ -17,7 +17,7 @@ from service.analysis import network
 from service.constants import SPEED_OF_LIGHT_M_PER_S
 from service.physics.loads import FixedLoad, LoadModel
 from service.physics.media import Medium
-from service.physics.steps import StepElements, inductance_per_m_h, microstrip_step, stripline_step
+from service.physics.steps import StepElements, coax_step, inductance_per_m_h, microstrip_step, stripline_step
 
 STACK_DESIGNS = 32  # designs per stacked cascade evaluation
 CHUNK_ELEMENTS = 1 << 18  # designs x frequencies x sections evaluated at once (bounds memory)
@@ -36,7 +36,8 @@ class LineCascade:
     medium: Medium
     geometry: np.ndarray
     lengths_m: np.ndarray
-    feed_geometry: float | None = None  # given: the junction steps (feed line to section 1, and between sections) count
+    # given: the junction steps (feed line to section 1, and between sections) count; an array per trial
+    feed_geometry: float | np.ndarray | None = None
 
     @property
     def with_steps(self) -> bool:
@@ -65,19 +66,28 @@ class LineCascade:
         feed = self.medium.parameters(np.asarray(self.feed_geometry), f)
         shape = params.impedance_ohm.shape
 
-        def with_feed_first(values: np.ndarray, feed_value: np.ndarray) -> np.ndarray:
+        def with_feed_first(values: np.ndarray, feed_value: np.ndarray, shape: tuple[int, ...] = shape) -> np.ndarray:
             """Each junction's source-side value: the feed line's, then each section's but the last."""
             values = np.broadcast_to(values, shape)
             return np.concatenate((np.broadcast_to(feed_value, (*shape[:-1], 1)), values[..., :-1]), -1)
 
+        if self.medium.kind == "coax":  # a static capacitance: evaluated once, not at every frequency
+            own = np.shape(self.geometry)
+            steps = coax_step(
+                with_feed_first(self.geometry, np.asarray(self.feed_geometry), own),
+                self.geometry,
+                self.medium.outer_diameter_m,
+                self.medium.eps_r,
+            )
+            return StepElements(*(np.broadcast_to(part, shape) for part in astuple(steps)))
+        geometry = np.broadcast_to(self.geometry, shape)
+        left = with_feed_first(geometry, np.asarray(self.feed_geometry))
         impedance = np.broadcast_to(params.impedance_ohm, shape)
         left_impedance = with_feed_first(impedance, feed.impedance_ohm)
         if self.medium.kind == "stripline":
             return stripline_step(left_impedance, impedance, self.medium.eps_r, self.medium.ground_spacing_m)
         per_m = inductance_per_m_h(impedance, params.eps_eff)
         left_per_m = with_feed_first(per_m, inductance_per_m_h(feed.impedance_ohm, feed.eps_eff))
-        geometry = np.broadcast_to(self.geometry, shape)
-        left = with_feed_first(geometry, np.asarray(self.feed_geometry))
         return microstrip_step(left, geometry, left_per_m, per_m, self.medium.eps_r, self.medium.height_m)
 
     def _abcd_with_steps(self, frequency_hz: np.ndarray) -> network.Abcd:

@@ -4,7 +4,8 @@ Each trial draws, from normal distributions with the given standard deviations: 
 width error per section, one etch bias common to all sections, and one permittivity and one
 substrate height for the board. Trials are evaluated by the exact cascade in chunks
 (trials x frequencies x sections, bounded by CHUNK_ELEMENTS), and a trial passes when its worst reflection on the
-grid stays within the spec. The yield's sampling error is the binomial standard error
+grid stays within the spec. Where the line's junction steps count, each trial's steps are those of its own
+drawn widths and board. The yield's sampling error is the binomial standard error
 sqrt(p (1 - p) / N), with a Wilson 95% interval.
 """
 
@@ -83,6 +84,10 @@ def monte_carlo(
     eps_r = np.maximum(drawn_eps_r, 1.0)
     height = np.maximum(drawn_height, 0.01 * nominal_height)
     geometry = np.maximum(drawn_geometry, 0.01 * line.geometry)
+    # The feed line, where the junction steps count, is etched with the board (its bias, no error of its own).
+    feed = (
+        None if line.feed_geometry is None else np.maximum(line.feed_geometry + bias[:, 0], 0.01 * line.feed_geometry)
+    )
     clipped = {
         "eps_r": int(np.count_nonzero(drawn_eps_r < 1.0)),
         "height_m": int(np.count_nonzero(drawn_height < 0.01 * nominal_height)),
@@ -93,7 +98,10 @@ def monte_carlo(
     for start in range(0, trials, per_chunk):
         chunk = slice(start, min(start + per_chunk, trials))
         board = medium.perturbed(eps_r[chunk, None, None], height[chunk, None, None])
-        trial_line = LineCascade(line.source_ohm, line.load, board, geometry[chunk, None, :], line.lengths_m)
+        trial_feed = None if feed is None else feed[chunk, None, None]
+        trial_line = LineCascade(
+            line.source_ohm, line.load, board, geometry[chunk, None, :], line.lengths_m, trial_feed
+        )
         worst[chunk] = np.max(trial_line.reflection(frequency_hz), axis=-1)
     nominal = float(np.max(line.reflection(frequency_hz)))
     passing = int(np.count_nonzero(worst <= spec_reflection * (1.0 + 1e-9)))

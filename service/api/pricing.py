@@ -263,11 +263,12 @@ def analyze_seconds(request: AnalyzeRequest) -> float:
 
 def yield_seconds(request: YieldRequest) -> float:
     """The design, then every trial's line on the yield grid (perturbed, so always evaluated per
-    frequency like a dispersive line)."""
+    frequency like a dispersive line; with junction steps, in complex arithmetic like a lossy one)."""
     design = request.design.model_dump()
     taper = design.get("method") == "taper"
     sections = _number(design.get("segments" if taper else "sections"), GUESSED_SECTIONS, MAX_SEGMENTS)
-    unit = max(PER_SECTION_POINT_S[medium_class(design)], PER_SECTION_POINT_S["dispersive"])
+    floor = "lossy" if design.get("junction_effects") in ("include", "compensate") else "dispersive"
+    unit = max(PER_SECTION_POINT_S[medium_class(design)], PER_SECTION_POINT_S[floor])
     return design_seconds(design) + request.trials * sections * YIELD_GRID_POINTS * unit
 
 

@@ -1,5 +1,7 @@
 """Step discontinuities: the lumped equivalent circuit of a junction between two line widths.
 
+Coax inner-conductor step: a shunt capacitance, in coax_step.py.
+
 Stripline step in width, after Altschuler and Oliner ("Discontinuities in the center conductor of
 symmetric strip transmission line", IRE Trans. MTT-8, 1960): a series reactance at the step,
 
@@ -37,10 +39,13 @@ from dataclasses import dataclass
 import numpy as np
 
 from service.constants import ETA_0_OHM, SPEED_OF_LIGHT_M_PER_S
+from service.physics.coax_step import coax_step_capacitance_f, coax_step_notes
 
 MODEL_NAMES = {
     "microstrip": "microstrip step in width (Garg-Bahl fits, as collected by Gupta, Garg, Bahl and Bhartia)",
     "stripline": "stripline step in width (Altschuler and Oliner, 1960)",
+    "coax": "coax inner-conductor step (Whinnery-Jamieson parallel-plate step rolled up, with a curvature "
+    "ratio from a static field solution)",
 }
 STRIPLINE_WIDE_STRIP = 0.35  # W / (b - t) from which a strip counts as wide (as in the stripline model's notes)
 STRIPLINE_THIN_STRIP = 0.1  # t / b up to which a strip counts as thin
@@ -61,7 +66,7 @@ class StepElements:
     right_inductance_h: np.ndarray
 
 
-def _step_capacitance_per_m(ratio: np.ndarray, eps_r: float) -> np.ndarray:
+def _step_capacitance_per_m(ratio: np.ndarray, eps_r: float | np.ndarray) -> np.ndarray:
     """C / sqrt(W1 W2) in F/m for W1/W2 = ratio >= 1."""
     log_eps = np.log10(eps_r)
 
@@ -69,8 +74,8 @@ def _step_capacitance_per_m(ratio: np.ndarray, eps_r: float) -> np.ndarray:
         return (10.1 * log_eps + 2.33) * r - 12.6 * log_eps - 3.17
 
     fitted = narrow_fit(ratio)
-    if eps_r == WIDE_FIT_EPS_R:
-        fitted = np.where(ratio > WIDE_FIT_RANGE[0], 130.0 * np.log10(ratio) - 44.0, fitted)
+    wide_fit = (np.asarray(eps_r) == WIDE_FIT_EPS_R) & (ratio > WIDE_FIT_RANGE[0])
+    fitted = np.where(wide_fit, 130.0 * np.log10(ratio) - 44.0, fitted)
     low = CAPACITANCE_FIT_RANGE[0]
     bridged = narrow_fit(low) * (ratio - 1.0) / (low - 1.0)
     return np.where(ratio < low, np.maximum(bridged, 0.0), fitted) * 1e-12
@@ -114,8 +119,18 @@ def inductance_per_m_h(impedance_ohm: np.ndarray, eps_eff: np.ndarray) -> np.nda
     return np.asarray(impedance_ohm) * np.sqrt(eps_eff) / SPEED_OF_LIGHT_M_PER_S
 
 
-def step_notes(medium: object, widths_m: np.ndarray) -> list[str]:
+def coax_step(
+    left_diameter_m: np.ndarray, right_diameter_m: np.ndarray, outer_diameter_m: float, eps_r: float
+) -> StepElements:
+    """The junction between inner conductors of these diameters: one shunt capacitance (coax_step.py)."""
+    capacitance = coax_step_capacitance_f(left_diameter_m, right_diameter_m, outer_diameter_m, eps_r)
+    return StepElements(np.zeros_like(capacitance), capacitance, np.zeros_like(capacitance))
+
+
+def step_notes(medium: object, widths_m: np.ndarray, stop_hz: float) -> list[str]:
     """Where the junctions of this chain of widths (feed line first) leave the model's stated range."""
+    if medium.kind == "coax":
+        return coax_step_notes(np.asarray(widths_m, dtype=float), medium.outer_diameter_m, medium.eps_r, stop_hz)
     if medium.kind == "stripline":
         return _stripline_notes(np.asarray(widths_m, dtype=float), medium.ground_spacing_m, medium.thickness_m)
     return _microstrip_notes(np.asarray(widths_m, dtype=float), medium.eps_r)

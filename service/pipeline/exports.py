@@ -1,4 +1,5 @@
-"""A design's two-port S-parameters, from its sections rebuilt in the request's medium."""
+"""A design's two-port S-parameters, from its sections rebuilt in the request's medium (with its steps
+where the request asks for them)."""
 
 from __future__ import annotations
 
@@ -7,18 +8,21 @@ import numpy as np
 from service.analysis import network
 from service.analysis.line_cascade import LineCascade
 from service.physics.loads import impedance_at
+from service.pipeline.realize import feed_geometry
 from service.pipeline.request_models import load_model, medium_model
 from service.schemas.results import AnalysisResult
 from service.schemas.transformers import MatchRequest
 
 
 def design_line(request: MatchRequest, design: AnalysisResult) -> LineCascade:
-    """The design's sections as a LineCascade (geometry and lengths as the response gives them)."""
+    """The design's sections as a LineCascade (geometry and lengths as the response gives them), with
+    its junction steps where the request includes or compensates them, as its verified figures do."""
     medium = medium_model(request)
     name = medium.geometry_name or "impedance_ohm"
     geometry = np.array([getattr(section, name) for section in design.sections])
     lengths = np.array([section.length_m for section in design.sections])
-    return LineCascade(request.source_ohm, load_model(request.load), medium, geometry, lengths)
+    feed = None if request.junction_effects == "ignore" else feed_geometry(request)
+    return LineCascade(request.source_ohm, load_model(request.load), medium, geometry, lengths, feed)
 
 
 def two_port(request: MatchRequest, design: AnalysisResult) -> tuple[np.ndarray, np.ndarray, tuple[float, float]]:

@@ -1,5 +1,5 @@
 """The junction steps of a physical design: included in its exact check, or compensated by
-adjusting its section lengths (microstrip and stripline; the models are in physics/steps.py)."""
+adjusting its section lengths (microstrip, stripline and coax; the models are in physics/steps.py)."""
 
 from __future__ import annotations
 
@@ -10,7 +10,7 @@ import numpy as np
 from service.analysis.line_cascade import LineCascade
 from service.analysis.worst_case import check
 from service.physics.steps import MODEL_NAMES, step_notes
-from service.pipeline.realize import geometry_for, quarter_wave_m
+from service.pipeline.realize import feed_geometry, quarter_wave_m
 from service.pipeline.refine import refine_minimax
 from service.schemas.results import JunctionEffects, ResponseCurve, StepCircuitResult, VerifiedFigures
 from service.schemas.transformers import MatchRequest
@@ -33,9 +33,9 @@ def junction_check(line: LineCascade, request: MatchRequest, ideal: VerifiedFigu
     """Check the line with its junction steps; with `compensate`, first adjust its lengths (only)
     for the smallest worst in-band reflection with the steps, never ending worse than unadjusted."""
     band, spec = request.band, request.spec_reflection
-    feed = float(geometry_for(request, np.array([request.source_ohm]))[0])
+    feed = feed_geometry(request)
     stepped = replace(line, feed_geometry=feed)
-    notes = step_notes(line.medium, np.concatenate(([feed], line.geometry)))
+    notes = step_notes(line.medium, np.concatenate(([feed], line.geometry)), band.stop_hz)
     uncompensated, changes = None, None
     if request.junction_effects == "compensate":
         uncompensated = check(stepped, band.start_hz, band.stop_hz, spec, request.points)[0].max_reflection

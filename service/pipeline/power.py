@@ -5,7 +5,7 @@ from __future__ import annotations
 import numpy as np
 
 from service.analysis.line_cascade import LineCascade
-from service.analysis.standing_waves import section_peaks
+from service.analysis.standing_waves import standing_waves
 from service.schemas.results import PowerFigures, SectionPower
 from service.schemas.transformers import MatchRequest
 
@@ -36,7 +36,8 @@ def power_figures(request: MatchRequest, line: LineCascade) -> tuple[PowerFigure
     power = float(request.input_power_w)
     band = request.band
     frequencies = np.linspace(band.start_hz, band.stop_hz, min(request.points, POWER_POINTS))
-    peak_v, peak_i = section_peaks(line, frequencies, power)
+    waves = standing_waves(line, frequencies, power)
+    peak_v, peak_i = waves.peak_voltage_v, waves.peak_current_a
     medium = line.medium
     notes: list[str] = []
     strength, density = None, None

@@ -62,6 +62,12 @@ def geometry_for(request: MatchRequest, impedances_ohm: np.ndarray) -> np.ndarra
         raise UnmeetableRequestError("medium", str(exc)) from exc
 
 
+def feed_geometry(request: MatchRequest) -> float:
+    """The source's feed line in the request's medium (a line of the source impedance): the first
+    junction step is between it and section 1."""
+    return float(geometry_for(request, np.array([request.source_ohm]))[0])
+
+
 def centre_eps_eff(request: MatchRequest, impedances_ohm: np.ndarray) -> np.ndarray:
     """Each impedance's effective permittivity in the request's medium at the band centre."""
     geometry = geometry_for(request, impedances_ohm)

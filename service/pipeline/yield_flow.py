@@ -24,9 +24,9 @@ METHOD_NOTE = (
     "clipped_draws. The standard error is sqrt(p (1 - p) / N)."
 )
 
-IDEAL_JUNCTIONS_NOTE = (
-    " The trials check the sections with ideal junctions: the nominal design's verified figures include its "
-    "junction steps, the trials' figures do not."
+WITH_STEPS_NOTE = (
+    " The junction steps count, as in the nominal design's verified figures: each trial's steps are those of its "
+    "own drawn widths and board, the source's feed line taking the board's etch bias."
 )
 
 
@@ -59,5 +59,5 @@ def yield_analysis(request: YieldRequest, options: DesignOptions | None = None) 
         percentiles=Percentiles(p50=p50, p90=p90, p95=p95, p99=p99),
         histogram=Histogram(edges=edges.tolist(), counts=counts.tolist()),
         grid_points=YIELD_GRID_POINTS,
-        method=METHOD_NOTE + (IDEAL_JUNCTIONS_NOTE if item.junction_effects != "ignore" else ""),
+        method=METHOD_NOTE + (WITH_STEPS_NOTE if item.junction_effects != "ignore" else ""),
     )

@@ -50,7 +50,7 @@ class MatchRequest(StrictModel):
     junction_effects: Literal["ignore", "include", "compensate"] = Field(
         "ignore",
         description="The step discontinuities at the junctions (feed line to section 1, and between sections), "
-        "microstrip and stripline: `ignore` them (ideal steps), `include` them in the exact check, or "
+        "in microstrip, stripline or coax: `ignore` them (ideal steps), `include` them in the exact check, or "
         "`compensate` them (section lengths adjusted so that the design with its steps meets the spec).",
     )
 
@@ -72,10 +72,10 @@ class MatchRequest(StrictModel):
     def _consistent(self) -> MatchRequest:
         if self.medium is not None and "velocity_factor" in self.model_fields_set:
             raise ValueError("give velocity_factor at the top level or a medium, not both")
-        if self.junction_effects != "ignore" and getattr(self.medium, "kind", None) not in ("microstrip", "stripline"):
+        if self.junction_effects != "ignore" and getattr(self.medium, "kind", "ideal") == "ideal":
             raise ValueError(
-                "junction_effects needs a microstrip or stripline medium: a step model for coax is not "
-                "available yet, and the ideal line has no geometry"
+                "junction_effects needs a microstrip, stripline or coax medium: the ideal line has no geometry, "
+                "so no steps"
             )
         given = [name for name in SPEC_FIELDS if getattr(self, name) is not None]
         if len(given) > 1:

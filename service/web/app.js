@@ -123,7 +123,7 @@ function buildRequest() {
     body.medium = { kind: medium, eps_r: number("eps-r", 1, problems), thickness_m: number("thickness", 1e-6, problems) };
     body.medium[medium === "microstrip" ? "height_m" : "ground_spacing_m"] = number("height", 1e-3, problems);
   }
-  if (medium === "microstrip" && value("junctions") !== "ignore") body.junction_effects = value("junctions");
+  if (medium !== "ideal" && value("junctions") !== "ignore") body.junction_effects = value("junctions");
   const power = number("power", 1, problems);
   if (power !== null) body.input_power_w = power;
   if (body.medium) {
@@ -660,7 +660,6 @@ function showRelevantFields() {
   show(".medium-physical", medium !== "ideal");
   show(".medium-board", medium === "microstrip" || medium === "stripline");
   show(".medium-coax", medium === "coax");
-  show(".medium-microstrip", medium === "microstrip");
   const load = value("load-kind");
   for (const kind of ["fixed", "circuit", "measured", "touchstone"]) show(`.load-${kind}`, load === kind);
   show(".circuit-l", load === "circuit" && value("circuit-kind").endsWith("l"));
