@@ -74,7 +74,8 @@ class ResponseCurve(DescribedModel):
 
 
 class StepCircuitResult(DescribedModel):
-    """One junction's step circuit: series inductance, shunt capacitance, series inductance."""
+    """One junction's step circuit: series inductance, shunt capacitance, series inductance (a stripline
+    step has only the first, a coax step only the capacitance; the others are zero)."""
 
     source_side_inductance_h: float = Field(description="Series inductance on the source side of the step.")
     capacitance_f: float = Field(description="Shunt capacitance at the step.")
@@ -85,7 +86,7 @@ class JunctionEffects(DescribedModel):
     """The step discontinuities' effect: the verified figures include them; these say by how much."""
 
     mode: str = Field(description="`include` or `compensate`, as asked.")
-    model: str = Field(description="The published step model used.")
+    model: str = Field(description="The step model used (named in the README, with its source and range).")
     ideal_max_reflection: float = Field(description="Worst in-band |reflection| of the same sections with ideal steps.")
     with_steps_max_reflection: float = Field(description="Worst in-band |reflection| with the steps (as verified).")
     uncompensated_max_reflection: float | None = Field(
