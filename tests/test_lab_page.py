@@ -302,9 +302,11 @@ def test_interactive_docs_work_without_the_internet(browser, server_url):
     outside = []
     page.route(
         "**/*",
-        lambda route: route.continue_()
-        if route.request.url.startswith(server_url)
-        else (outside.append(route.request.url), route.abort()),
+        lambda route: (
+            route.continue_()
+            if route.request.url.startswith(server_url)
+            else (outside.append(route.request.url), route.abort())
+        ),
     )
     page.goto(server_url + "/docs")
     page.wait_for_selector(".swagger-ui .info .title", timeout=20000)

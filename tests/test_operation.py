@@ -165,9 +165,7 @@ def test_health_answers_quickly_while_long_work_runs(server):
 def test_a_request_cut_off_by_shutdown_gets_the_error_shape():
     with live_process(("--timeout-graceful-shutdown", "1")) as (url, process):
         answers = []
-        client = threading.Thread(
-            target=lambda: answers.append(httpx.post(url + TAPER, json=LONG_TAPER, timeout=30))
-        )
+        client = threading.Thread(target=lambda: answers.append(httpx.post(url + TAPER, json=LONG_TAPER, timeout=30)))
         client.start()
         time.sleep(1.0)
         process.send_signal(signal.SIGTERM)

@@ -9,11 +9,14 @@ For each design it asks the service for the design (with its junction steps incl
 strips out as zero-thickness sheets on the substrate with an 18 mm feed line at each end, drives
 the source feed line with a band-limited pulse, lets the load feed line run into an absorbing
 boundary, and prints |S11| at the first step beside the service's ideal-step and with-step
-predictions: raw (the nominal load resistance) and with the load line's simulated impedance (from
-the passive port's voltage and current), since the simulated load line differs slightly from the
-nominal one. |S11| needs no de-embedding of the feed line: a lossless matched feed only turns its
-phase. --coarse is the smoke run (a few seconds a design); --finer refines the mesh 1.5x to show
-convergence. Not a unit test: it needs the solver and minutes of CPU.
+predictions. The simulated lines are not exactly the nominal ones (the mesh shifts a narrow
+strip's impedance by a few per cent), so a thru run (every strip the source width, on the design's
+own mesh) gives the simulated source line's impedance, and |S11| is printed both in the nominal
+source impedance and in that simulated feed line; the with-step prediction is also repeated with
+the load line's simulated impedance (from the passive port's voltages and currents). |S11| needs
+no de-embedding of the feed line: a lossless feed only turns its phase. --coarse is the smoke run
+(a few seconds a design); --finer refines the mesh 1.5x to show convergence. Not a unit test:
+it needs the solver and minutes of CPU.
 """
 
 from __future__ import annotations
@@ -45,7 +48,7 @@ CASES = [
             "source_ohm": 50,
             "load": {"resistance_ohm": 20},
             "band": {"start_hz": 2e9, "stop_hz": 4e9},
-            "medium": {"kind": "microstrip", "eps_r": 3.66, "height_m": 0.508e-3, "thickness_m": 35e-6},
+            "medium": {"kind": "microstrip", "eps_r": 3.66, "height_m": 0.508e-3, "thickness_m": 0.0},
         },
     },
     {
@@ -57,7 +60,7 @@ CASES = [
             "source_ohm": 50,
             "load": {"resistance_ohm": 25},
             "band": {"start_hz": 8e9, "stop_hz": 12e9},
-            "medium": {"kind": "microstrip", "eps_r": 3.0, "height_m": 0.254e-3, "thickness_m": 17e-6},
+            "medium": {"kind": "microstrip", "eps_r": 3.0, "height_m": 0.254e-3, "thickness_m": 0.0},
         },
     },
 ]
@@ -104,18 +107,37 @@ def predictions(url: str, design_body: dict, frequencies: np.ndarray) -> dict:
         "steps": np.array(steps["response"]["reflection_magnitude"]),
         "source_width_m": source["sections"][0]["width_m"],
         "load_width_m": load["sections"][0]["width_m"],
+        "source_line": source["sections"][0],
+        "load_line": load["sections"][0],
     }
 
 
-def simulate(case: dict, predicted: dict, frequencies: np.ndarray, resolution_factor: float, coarse: bool):
-    """|S11| at the first step, and the load line's simulated impedance, at the given frequencies."""
-    medium = case["design"]["medium"]
-    h = medium["height_m"] * 1e3
+def layout(predicted: dict) -> tuple[list[float], list[float]]:
+    """Strip widths and lengths in mm, source feed line first and load feed line last."""
     sections = predicted["design"]["sections"]
-    widths = (
-        [predicted["source_width_m"] * 1e3] + [s["width_m"] * 1e3 for s in sections] + [predicted["load_width_m"] * 1e3]
-    )
-    lengths = [FEED_MM] + [s["length_m"] * 1e3 for s in sections] + [FEED_MM]
+    widths = [predicted["source_width_m"], *(s["width_m"] for s in sections), predicted["load_width_m"]]
+    lengths = [FEED_MM / 1e3, *(s["length_m"] for s in sections), FEED_MM / 1e3]
+    return [w * 1e3 for w in widths], [length * 1e3 for length in lengths]
+
+
+def simulate(
+    medium: dict,
+    strip_widths: list[float],
+    lengths: list[float],
+    mesh_widths: list[float],
+    frequencies: np.ndarray,
+    resolution_factor: float,
+    coarse: bool,
+) -> dict:
+    """One FDTD run of the strips (mm) on a mesh laid for mesh_widths: the total voltage and current
+    in the source feed line at its measurement plane, and the load feed line's simulated impedance
+    and eps_eff.
+
+    The mesh depends only on mesh_widths and lengths, so a thru line (every strip the source width)
+    meshed for the design's widths sees the same cells as the design: its load-line impedance is the
+    simulated source line's impedance on that mesh.
+    """
+    h = medium["height_m"] * 1e3
     edges = np.concatenate(([0.0], np.cumsum(lengths)))
     total = edges[-1]
     f_start, f_stop = frequencies[0], frequencies[-1]
@@ -129,16 +151,16 @@ def simulate(case: dict, predicted: dict, frequencies: np.ndarray, resolution_fa
     mesh = csx.GetGrid()
     mesh.SetDeltaUnit(1e-3)
     wavelength = 299792458.0 / f_stop / np.sqrt(medium["eps_r"]) * 1e3
-    resolution = min(wavelength / (12 if coarse else 30), min(widths) / (2 if coarse else 4)) / resolution_factor
-    half_width = max(widths) / 2 + 6 * h + 2
-    x_lines = list(edges)
-    y_lines = [0.0, -half_width, half_width] + [s * w / 2 for w in widths for s in (-1, 1)]
+    resolution = min(wavelength / (12 if coarse else 30), min(mesh_widths) / (2 if coarse else 4)) / resolution_factor
+    half_width = max(mesh_widths) / 2 + 6 * h + 2
+    y_lines = [0.0, -half_width, half_width] + [s * w / 2 for w in mesh_widths for s in (-1, 1)]
     if not coarse:  # the third/two-thirds rule at every strip edge
-        y_lines += [s * (w / 2 + d) for w in widths for s in (-1, 1) for d in (-resolution / 3, 2 * resolution / 3)]
-    z_lines = [*np.linspace(0, h, 3 if coarse else 5), 9 * h]
-    mesh.AddLine("x", x_lines)
+        y_lines += [
+            s * (w / 2 + d) for w in mesh_widths for s in (-1, 1) for d in (-resolution / 3, 2 * resolution / 3)
+        ]
+    mesh.AddLine("x", list(edges))
     mesh.AddLine("y", y_lines)
-    mesh.AddLine("z", z_lines)
+    mesh.AddLine("z", [*np.linspace(0, h, 3 if coarse else 5), 9 * h])
     mesh.SmoothMeshLines("x", resolution, 1.4)
     mesh.SmoothMeshLines("y", resolution, 1.4)
     mesh.SmoothMeshLines("z", h / 2, 1.4)
@@ -146,42 +168,61 @@ def simulate(case: dict, predicted: dict, frequencies: np.ndarray, resolution_fa
     substrate = csx.AddMaterial("substrate", epsilon=medium["eps_r"])
     substrate.AddBox([0, -half_width, 0], [total, half_width, h])
     metal = csx.AddMetal("strips")
-    for start, stop, width in zip(edges[1:-2], edges[2:-1], widths[1:-1], strict=True):
+    for start, stop, width in zip(edges[1:-2], edges[2:-1], strip_widths[1:-1], strict=True):
         metal.AddBox([start, -width / 2, h], [stop, width / 2, h], priority=10)
-    ports = [
-        fdtd.AddMSLPort(
-            1,
-            metal,
-            [0, -widths[0] / 2, h],
-            [FEED_MM, widths[0] / 2, 0],
-            "x",
-            "z",
-            excite=-1,
-            FeedShift=10 * resolution,
-            MeasPlaneShift=FEED_MM / 2,
-            priority=10,
-        ),
-        fdtd.AddMSLPort(
-            2,
-            metal,
-            [total, -widths[-1] / 2, h],
-            [total - FEED_MM, widths[-1] / 2, 0],
-            "x",
-            "z",
-            MeasPlaneShift=FEED_MM / 2,
-            priority=10,
-        ),
-    ]
+    source_port = fdtd.AddMSLPort(
+        1,
+        metal,
+        [0, -strip_widths[0] / 2, h],
+        [FEED_MM, strip_widths[0] / 2, 0],
+        "x",
+        "z",
+        excite=-1,
+        FeedShift=10 * resolution,
+        MeasPlaneShift=FEED_MM / 2,
+        priority=10,
+    )
+    load_port = fdtd.AddMSLPort(
+        2,
+        metal,
+        [total, -strip_widths[-1] / 2, h],
+        [total - FEED_MM, strip_widths[-1] / 2, 0],
+        "x",
+        "z",
+        MeasPlaneShift=FEED_MM / 2,
+        priority=10,
+    )
     cells = len(mesh.GetLines("x")) * len(mesh.GetLines("y")) * len(mesh.GetLines("z"))
     path = tempfile.mkdtemp(prefix="stepline-fdtd-")
     started = time.monotonic()
     fdtd.Run(path, verbose=0, cleanup=True, numThreads=os.cpu_count())
     seconds = time.monotonic() - started
-    source_ohm = case["design"]["source_ohm"]
-    ports[0].CalcPort(path, frequencies, ref_impedance=source_ohm)
-    ports[1].CalcPort(path, frequencies)
-    s11 = np.abs(ports[0].uf_ref / ports[0].uf_inc)
-    return s11, ports[1].Z_ref, cells, seconds
+    source_port.CalcPort(path, frequencies)
+    load_port.CalcPort(path, frequencies)
+    return {
+        "source_voltage": source_port.uf_tot,
+        "source_current": source_port.if_tot,
+        "load_impedance": load_port.Z_ref,
+        "load_eps_eff": (load_port.beta * 299792458.0 / (2 * np.pi * frequencies)).real ** 2,
+        "cells": cells,
+        "seconds": seconds,
+    }
+
+
+def reflection(run: dict, reference_impedance: np.ndarray | float) -> np.ndarray:
+    """|S11| in the source feed line: its total voltage and current split into waves on a line of
+    the given impedance (the split openEMS's port does with its ref_impedance)."""
+    voltage, current = run["source_voltage"], run["source_current"]
+    return np.abs((voltage - reference_impedance * current) / (voltage + reference_impedance * current))
+
+
+def measured_load(frequencies: np.ndarray, impedance: np.ndarray) -> dict:
+    """A simulated line impedance as the service's measured load."""
+    points = [
+        {"frequency_hz": float(f), "resistance_ohm": float(z.real), "reactance_ohm": float(z.imag)}
+        for f, z in zip(frequencies, impedance, strict=True)
+    ]
+    return {"measured": points}
 
 
 def main() -> None:
@@ -193,37 +234,56 @@ def main() -> None:
     arguments = parser.parse_args()
     for case in CASES[: arguments.cases]:
         band = case["design"]["band"]
+        medium = case["design"]["medium"]
         frequencies = np.linspace(band["start_hz"], band["stop_hz"], 21)
         predicted = predictions(arguments.url, case["design"], frequencies)
+        widths, lengths = layout(predicted)
         factors = [1.0, 1.5] if arguments.finer else [1.0]
         print(f"\n{case['name']}")
         for factor in factors:
-            s11, z_load, cells, seconds = simulate(case, predicted, frequencies, factor, arguments.coarse)
-            measured = [
-                {"frequency_hz": float(f), "resistance_ohm": float(z.real), "reactance_ohm": float(z.imag)}
-                for f, z in zip(frequencies, z_load, strict=True)
-            ]
+            mesh = {"mesh_widths": widths, "frequencies": frequencies, "resolution_factor": factor}
+            thru = simulate(medium, [widths[0]] * len(widths), lengths, coarse=arguments.coarse, **mesh)
+            run = simulate(medium, widths, lengths, coarse=arguments.coarse, **mesh)
+            source_line = thru["load_impedance"]
+            raw = reflection(run, case["design"]["source_ohm"])
+            in_feed = reflection(run, source_line)
             with_load = np.array(
                 post(
                     arguments.url,
                     "/v1/networks/analyze",
-                    predicted["analysis"] | {"load": {"measured": measured}, "junction_effects": "include"},
+                    predicted["analysis"]
+                    | {"load": measured_load(frequencies, run["load_impedance"]), "junction_effects": "include"},
                 )["response"]["reflection_magnitude"]
             )
+            centre = len(frequencies) // 2
             print(
-                f"  mesh x{factor:g}: {cells} cells, {seconds:.0f} s; simulated load line "
-                f"{np.mean(z_load.real):.2f}{np.mean(z_load.imag):+.2f}j ohm "
-                f"(nominal {case['design']['load']['resistance_ohm']})"
+                f"  mesh x{factor:g}: {run['cells']} cells, {run['seconds']:.0f} s (thru line {thru['seconds']:.0f} s)"
             )
-            print("  GHz     FDTD   ideal  steps  steps+simulated load")
+            for name, nominal, simulated, eps_eff, service in (
+                ("source", case["design"]["source_ohm"], source_line, thru["load_eps_eff"], predicted["source_line"]),
+                (
+                    "load",
+                    case["design"]["load"]["resistance_ohm"],
+                    run["load_impedance"],
+                    run["load_eps_eff"],
+                    predicted["load_line"],
+                ),
+            ):
+                print(
+                    f"  simulated {name} feed line {np.mean(simulated.real):.2f}{np.mean(simulated.imag):+.2f}j ohm "
+                    f"(nominal {nominal}), eps_eff at the band centre {eps_eff[centre]:.4f} "
+                    f"(service {service['eps_eff']:.4f})"
+                )
+            print("  GHz    FDTD in 50 ohm  in its feed   ideal   steps  steps+simulated load")
             for k in range(0, len(frequencies), 2):
                 print(
-                    f"  {frequencies[k] / 1e9:5.2f}  {s11[k]:.4f}  {predicted['ideal'][k]:.4f}  "
-                    f"{predicted['steps'][k]:.4f}  {with_load[k]:.4f}"
+                    f"  {frequencies[k] / 1e9:5.2f}  {raw[k]:12.4f}  {in_feed[k]:11.4f}  {predicted['ideal'][k]:6.4f}  "
+                    f"{predicted['steps'][k]:6.4f}  {with_load[k]:.4f}"
                 )
             print(
-                f"  worst in band: FDTD {s11.max():.4f}, ideal {predicted['ideal'].max():.4f}, "
-                f"steps {predicted['steps'].max():.4f}, steps+simulated load {with_load.max():.4f}"
+                f"  worst in band: FDTD {raw.max():.4f}, ideal {predicted['ideal'].max():.4f}, "
+                f"steps {predicted['steps'].max():.4f}, steps+simulated load {with_load.max():.4f}, "
+                f"FDTD in its simulated feed line {in_feed.max():.4f}"
             )
 
 
