@@ -105,8 +105,6 @@ def predictions(url: str, design_body: dict, frequencies: np.ndarray) -> dict:
         "analysis": analysis,
         "ideal": np.array(ideal["response"]["reflection_magnitude"]),
         "steps": np.array(steps["response"]["reflection_magnitude"]),
-        "source_width_m": source["sections"][0]["width_m"],
-        "load_width_m": load["sections"][0]["width_m"],
         "source_line": source["sections"][0],
         "load_line": load["sections"][0],
     }
@@ -115,9 +113,9 @@ def predictions(url: str, design_body: dict, frequencies: np.ndarray) -> dict:
 def layout(predicted: dict) -> tuple[list[float], list[float]]:
     """Strip widths and lengths in mm, source feed line first and load feed line last."""
     sections = predicted["design"]["sections"]
-    widths = [predicted["source_width_m"], *(s["width_m"] for s in sections), predicted["load_width_m"]]
-    lengths = [FEED_MM / 1e3, *(s["length_m"] for s in sections), FEED_MM / 1e3]
-    return [w * 1e3 for w in widths], [length * 1e3 for length in lengths]
+    widths = [predicted["source_line"]["width_m"], *(s["width_m"] for s in sections), predicted["load_line"]["width_m"]]
+    lengths = [FEED_MM, *(s["length_m"] * 1e3 for s in sections), FEED_MM]
+    return [w * 1e3 for w in widths], lengths
 
 
 def simulate(
